@@ -1,0 +1,6 @@
+#include <nappe/base/version.h>
+
+namespace nappe
+{
+  std::string version() { return NAPPE_VERSION_STRING; }
+} // namespace nappe
