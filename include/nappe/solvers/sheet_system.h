@@ -1,0 +1,118 @@
+#pragma once
+
+#include <deal.II/base/index_set.h>
+#include <deal.II/distributed/tria.h>
+#include <deal.II/dofs/dof_handler.h>
+#include <deal.II/fe/fe_system.h>
+#include <deal.II/fe/mapping_q.h>
+#include <deal.II/lac/affine_constraints.h>
+#include <deal.II/lac/trilinos_sparse_matrix.h>
+#include <deal.II/lac/trilinos_vector.h>
+
+#include <nappe/geometry/sheet_domain.h>
+#include <nappe/physics/sheet_model.h>
+
+#include <memory>
+
+namespace nappe
+{
+  using Vector       = dealii::TrilinosWrappers::MPI::Vector;
+  using SparseMatrix = dealii::TrilinosWrappers::SparseMatrix;
+
+  /// The sheet's energy split by origin [J]. External work enters the total with a minus sign.
+  struct EnergyParts
+  {
+    double stretching = 0.0; ///< ½∫N:ε dA
+    double bending    = 0.0; ///< ½∫M:κ dA plus the interior-penalty edge terms
+    double substrate  = 0.0; ///< ∫ψ(x, w) dA (adhesion)
+    double external_work = 0.0; ///< ∫p·w dA + Σ F·w(x_F)
+
+    double total() const { return stretching + bending + substrate - external_work; }
+  };
+
+  /**
+   * The discrete Föppl–von Kármán sheet: the finite element space (u, w) ∈ Q_p² × Q_p on a
+   * distributed mesh, the constraints from edges, periodicity and pinned rigid modes, and the
+   * assembly of energy, residual (its gradient) and Hessian.
+   *
+   * Bending uses the symmetric C0 interior penalty method (Engel et al., Comput. Methods Appl.
+   * Mech. Engrg. 191, 3669, 2002; Brenner & Sung, J. Sci. Comput. 22, 83, 2005) with the energy
+   *   Σ_K ½∫M:κ − Σ_e ∫{M_nn}[∂_n w] + Σ_e ½∫η p(p+1) D/h_e [∂_n w]²,
+   * over interior and periodic edges and clamped boundary edges.
+   *
+   * The state vector holds (ũ, w); the total in-plane displacement is u = λE·x + ũ. All constraints
+   * are homogeneous, so a state that satisfies them stays feasible under constrained updates.
+   */
+  class SheetSystem
+  {
+  public:
+    SheetSystem(const SheetModel &model, const SheetDomain &domain, MPI_Comm comm);
+    ~SheetSystem();
+
+    /// Number of degrees of freedom (all ranks).
+    dealii::types::global_dof_index n_dofs() const;
+    const dealii::DoFHandler<2> &dof_handler() const { return dof_handler_; }
+    const dealii::FESystem<2> &finite_element() const { return fe_; }
+    const dealii::Mapping<2> &mapping() const { return *mapping_; }
+    const dealii::AffineConstraints<double> &constraints() const { return constraints_; }
+    const SheetModel &model() const { return model_; }
+    const SheetDomain &domain() const { return domain_; }
+    MPI_Comm communicator() const { return comm_; }
+
+    /// A vector with the owned partition (for solvers and updates).
+    Vector make_owned_vector() const;
+    /// A ghosted vector (owned + relevant), as required by assembly and output.
+    Vector make_ghosted_vector() const;
+
+    /// The energy at @p state (ghosted) and load factor λ, without derivatives.
+    EnergyParts energy(const Vector &state, double load_factor) const;
+
+    /**
+     * Energy, gradient (@p residual, owned, constrained entries zero) and, if @p hessian is not
+     * null, the Hessian (constrained rows/columns replaced by a positive diagonal) at @p state.
+     */
+    EnergyParts assemble(const Vector &state, double load_factor, Vector &residual, SparseMatrix *hessian) const;
+
+    /// The matrix with the Hessian's sparsity pattern; reused across Newton steps.
+    SparseMatrix &hessian_matrix() { return hessian_; }
+
+    /// w of @p state (ghosted) at a point [m]; the same on every rank.
+    double deflection_at(const Vector &state, const dealii::Point<2> &p) const;
+
+  private:
+    /// A point load's shape function values on the owning rank (empty on the others).
+    struct PointEvaluation
+    {
+      double                                       force = 0.0;
+      std::vector<dealii::types::global_dof_index> dofs;
+      std::vector<double>                          w_shape_values;
+    };
+
+    void setup_dofs();
+    void setup_constraints();
+    void setup_sparsity();
+    void locate_point_loads();
+    PointEvaluation evaluate_at(const dealii::Point<2> &p) const;
+    void pin_rigid_modes();
+    EnergyParts assemble_parts(const Vector &state, double load_factor, Vector *residual,
+                               SparseMatrix *hessian) const;
+    void assemble_cells(const Vector &state, double load_factor, Vector *residual, SparseMatrix *hessian,
+                        EnergyParts &parts) const;
+    void assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian, EnergyParts &parts) const;
+    void assemble_point_loads(const Vector &state, double load_factor, Vector *residual,
+                              EnergyParts &parts) const;
+
+    SheetModel  model_;
+    SheetDomain domain_;
+    MPI_Comm    comm_;
+    dealii::parallel::distributed::Triangulation<2> tria_;
+    dealii::FESystem<2>                            fe_;
+    std::unique_ptr<dealii::Mapping<2>>            mapping_;
+    dealii::DoFHandler<2>                          dof_handler_;
+    dealii::IndexSet                               owned_dofs_;
+    dealii::IndexSet                               relevant_dofs_;
+    dealii::AffineConstraints<double>              constraints_;
+    mutable SparseMatrix                           hessian_;
+    std::vector<std::unique_ptr<PointEvaluation>>  point_loads_;
+  };
+} // namespace nappe

@@ -1,0 +1,293 @@
+#include <deal.II/base/exceptions.h>
+#include <deal.II/base/parameter_handler.h>
+
+#include <nappe/base/units.h>
+#include <nappe/physics/material_catalogue.h>
+
+#include <algorithm>
+#include <cctype>
+#include <cstdlib>
+#include <fstream>
+#include <iomanip>
+#include <ostream>
+#include <sstream>
+
+#ifndef NAPPE_DATA_DIR
+#  error "NAPPE_DATA_DIR must be defined by the build system (the directory holding materials.prm)."
+#endif
+
+namespace nappe
+{
+  namespace
+  {
+    const char *const materials_section  = "Materials";
+    const char *const interfaces_section = "Interfaces";
+
+    std::string lower(std::string s)
+    {
+      std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return std::tolower(c); });
+      return s;
+    }
+
+    std::string trim(const std::string &s)
+    {
+      const auto first = s.find_first_not_of(" \t\r");
+      if (first == std::string::npos)
+        return "";
+      const auto last = s.find_last_not_of(" \t\r");
+      return s.substr(first, last - first + 1);
+    }
+
+    std::string joined(const std::vector<std::string> &names)
+    {
+      std::string out;
+      for (const auto &n : names)
+        out += (out.empty() ? "" : ", ") + n;
+      return out.empty() ? "(none)" : out;
+    }
+
+    /**
+     * The names of the subsections nested directly in "Materials" and in "Interfaces", found by
+     * a lexical scan (ParameterHandler needs every entry declared before it parses a file).
+     */
+    void scan_subsections(const std::string &text, std::vector<std::string> &material_sections,
+                          std::vector<std::string> &interface_sections)
+    {
+      std::istringstream       in(text);
+      std::string              line;
+      std::vector<std::string> path;
+      while (std::getline(in, line))
+        {
+          const auto hash = line.find('#');
+          line            = trim(line.substr(0, hash));
+          if (line.rfind("subsection", 0) == 0 && line.size() > 10 && std::isspace((unsigned char)line[10]))
+            {
+              path.push_back(trim(line.substr(10)));
+              if (path.size() == 2 && path[0] == materials_section)
+                material_sections.push_back(path[1]);
+              else if (path.size() == 2 && path[0] == interfaces_section)
+                interface_sections.push_back(path[1]);
+            }
+          else if (line == "end" && !path.empty())
+            path.pop_back();
+        }
+    }
+
+    void declare_material(dealii::ParameterHandler &prm)
+    {
+      prm.declare_entry("2D Young modulus", "0", dealii::Patterns::Double(0.0),
+                        "2D Young's modulus Y = E*t of the sheet. Unit: N/m.");
+      prm.declare_entry("Poisson ratio", "0", dealii::Patterns::Double(-1.0, 1.0),
+                        "Poisson's ratio of the sheet. Dimensionless, -1 < nu < 1.");
+      prm.declare_entry("Bending rigidity", "0", dealii::Patterns::Double(0.0),
+                        "Bending rigidity D of the sheet. Unit: eV.");
+      prm.declare_entry("Nominal thickness", "0", dealii::Patterns::Double(0.0),
+                        "Nominal thickness, used only to report bulk-equivalent stresses. Unit: nm.");
+      prm.declare_entry("Fracture strain", "0", dealii::Patterns::Double(0.0, 1.0),
+                        "Strain at which the sheet is expected to fracture; 0 means unknown. Dimensionless.");
+    }
+
+    void declare_interface(dealii::ParameterHandler &prm)
+    {
+      prm.declare_entry("Sheet", "", dealii::Patterns::Anything(),
+                        "Name of the sheet material (a subsection of 'Materials').");
+      prm.declare_entry("Substrate", "", dealii::Patterns::Anything(), "Name of the substrate.");
+      prm.declare_entry("Work of adhesion", "0", dealii::Patterns::Double(0.0),
+                        "Work of adhesion of the sheet on the substrate. Unit: J/m^2.");
+    }
+
+    /// Reads a positive entry and names the material, the entry and the unit if it is not positive.
+    double positive(const dealii::ParameterHandler &prm, const std::string &where, const std::string &entry,
+                    const std::string &unit)
+    {
+      const double value = prm.get_double(entry);
+      AssertThrow(value > 0.0, dealii::ExcMessage(where + "/" + entry + ": expected a positive value in " + unit +
+                                                  ", found " + prm.get(entry) + " (missing from the file?)."));
+      return value;
+    }
+  } // namespace
+
+  std::string MaterialCatalogue::default_path()
+  {
+    const char *env = std::getenv("NAPPE_DATA_DIR");
+    const std::string dir = (env != nullptr && *env != '\0') ? std::string(env) : std::string(NAPPE_DATA_DIR);
+    return dir + "/materials.prm";
+  }
+
+  MaterialCatalogue::MaterialCatalogue()
+    : MaterialCatalogue(default_path())
+  {}
+
+  MaterialCatalogue::MaterialCatalogue(const std::string &path)
+    : file_path(path)
+  {
+    std::ifstream file(path);
+    AssertThrow(file.good(), dealii::ExcMessage("MaterialCatalogue: cannot open the catalogue file <" + path +
+                                                "> for reading. Pass an explicit path or set the "
+                                                "environment variable NAPPE_DATA_DIR to the directory "
+                                                "holding materials.prm."));
+    const std::string text((std::istreambuf_iterator<char>(file)), std::istreambuf_iterator<char>());
+
+    std::vector<std::string> material_sections, interface_sections;
+    scan_subsections(text, material_sections, interface_sections);
+    AssertThrow(!material_sections.empty(),
+                dealii::ExcMessage("MaterialCatalogue: the file <" + path +
+                                   "> lists no material (expected subsections inside 'subsection Materials')."));
+
+    dealii::ParameterHandler prm;
+    prm.enter_subsection(materials_section);
+    for (const auto &name : material_sections)
+      {
+        prm.enter_subsection(name);
+        declare_material(prm);
+        prm.leave_subsection();
+      }
+    prm.leave_subsection();
+    prm.enter_subsection(interfaces_section);
+    for (const auto &name : interface_sections)
+      {
+        prm.enter_subsection(name);
+        declare_interface(prm);
+        prm.leave_subsection();
+      }
+    prm.leave_subsection();
+
+    std::istringstream in(text);
+    prm.parse_input(in, path);
+
+    prm.enter_subsection(materials_section);
+    for (const auto &name : material_sections)
+      {
+        AssertThrow(!has_material(name), dealii::ExcMessage("MaterialCatalogue <" + path + ">: material <" + name +
+                                                            "> is listed twice (names are case-insensitive)."));
+        const std::string where = "Materials/" + name;
+        prm.enter_subsection(name);
+        SheetMaterial m;
+        m.name              = name;
+        m.youngs_modulus_2d = positive(prm, where, "2D Young modulus", "N/m") * units::newton_per_m;
+        m.poisson_ratio     = prm.get_double("Poisson ratio");
+        AssertThrow(m.poisson_ratio > -1.0 && m.poisson_ratio < 1.0,
+                    dealii::ExcMessage(where + "/Poisson ratio: expected a value strictly between -1 and 1, found " +
+                                       prm.get("Poisson ratio") + "."));
+        m.bending_rigidity  = positive(prm, where, "Bending rigidity", "eV") * units::electronvolt;
+        m.nominal_thickness = positive(prm, where, "Nominal thickness", "nm") * units::nanometer;
+        m.fracture_strain   = prm.get_double("Fracture strain");
+        AssertThrow(m.fracture_strain >= 0.0 && m.fracture_strain < 1.0,
+                    dealii::ExcMessage(where + "/Fracture strain: expected 0 (unknown) or a strain in (0, 1), found " +
+                                       prm.get("Fracture strain") + "."));
+        prm.leave_subsection();
+        materials.push_back(m);
+      }
+    prm.leave_subsection();
+
+    prm.enter_subsection(interfaces_section);
+    for (const auto &name : interface_sections)
+      {
+        const std::string where = "Interfaces/" + name;
+        prm.enter_subsection(name);
+        Interface i;
+        i.sheet     = trim(prm.get("Sheet"));
+        i.substrate = trim(prm.get("Substrate"));
+        AssertThrow(has_material(i.sheet),
+                    dealii::ExcMessage(where + "/Sheet: expected one of the listed materials (" +
+                                       joined(material_names()) + "), found <" + i.sheet + ">."));
+        i.sheet = material(i.sheet).name; // canonical spelling
+        AssertThrow(!i.substrate.empty(),
+                    dealii::ExcMessage(where + "/Substrate: expected a substrate name, found an empty value."));
+        AssertThrow(!has_interface(i.sheet, i.substrate),
+                    dealii::ExcMessage("MaterialCatalogue <" + path + ">: interface " + i.sheet + " on " +
+                                       i.substrate + " is listed twice."));
+        i.work_of_adhesion = positive(prm, where, "Work of adhesion", "J/m^2") * units::joule_per_m2;
+        prm.leave_subsection();
+        interface_list.push_back(i);
+      }
+    prm.leave_subsection();
+  }
+
+  bool MaterialCatalogue::has_material(const std::string &name) const
+  {
+    const std::string key = lower(trim(name));
+    return std::any_of(materials.begin(), materials.end(),
+                       [&](const SheetMaterial &m) { return lower(m.name) == key; });
+  }
+
+  const SheetMaterial &MaterialCatalogue::material(const std::string &name) const
+  {
+    const std::string key = lower(trim(name));
+    for (const auto &m : materials)
+      if (lower(m.name) == key)
+        return m;
+    AssertThrow(false, dealii::ExcMessage("MaterialCatalogue: unknown material <" + name + ">. Known materials (" +
+                                          file_path + "): " + joined(material_names()) + "."));
+    return materials.front(); // not reached
+  }
+
+  std::vector<std::string> MaterialCatalogue::material_names() const
+  {
+    std::vector<std::string> names;
+    for (const auto &m : materials)
+      names.push_back(m.name);
+    return names;
+  }
+
+  bool MaterialCatalogue::has_interface(const std::string &sheet, const std::string &substrate) const
+  {
+    const std::string s = lower(trim(sheet)), t = lower(trim(substrate));
+    return std::any_of(interface_list.begin(), interface_list.end(), [&](const Interface &i) {
+      return lower(i.sheet) == s && lower(i.substrate) == t;
+    });
+  }
+
+  std::vector<std::string> MaterialCatalogue::substrate_names(const std::string &sheet) const
+  {
+    const std::string canonical = material(sheet).name; // throws for an unknown sheet
+    std::vector<std::string> names;
+    for (const auto &i : interface_list)
+      if (i.sheet == canonical)
+        names.push_back(i.substrate);
+    return names;
+  }
+
+  double MaterialCatalogue::work_of_adhesion(const std::string &sheet, const std::string &substrate) const
+  {
+    const std::string s = lower(trim(sheet)), t = lower(trim(substrate));
+    for (const auto &i : interface_list)
+      if (lower(i.sheet) == s && lower(i.substrate) == t)
+        return i.work_of_adhesion;
+    const std::vector<std::string> known = substrate_names(sheet); // throws, listing materials, if sheet is unknown
+    AssertThrow(false, dealii::ExcMessage("MaterialCatalogue: no work of adhesion listed for " + sheet + " on <" +
+                                          substrate + ">. Substrates listed for " + sheet + ": " + joined(known) +
+                                          ". Give the value explicitly (subsection Adhesion) instead."));
+    return 0.0; // not reached
+  }
+
+  void MaterialCatalogue::print(std::ostream &out) const
+  {
+    const auto flags     = out.flags();
+    const auto precision = out.precision();
+    out << "Sheet materials (" << file_path << ")\n";
+    out << std::left << std::setw(12) << "name" << std::right << std::setw(12) << "Y [N/m]" << std::setw(8)
+        << "nu [-]" << std::setw(10) << "D [eV]" << std::setw(10) << "t [nm]" << std::setw(16)
+        << "fracture strain" << '\n';
+    out << std::setprecision(4);
+    for (const auto &m : materials)
+      {
+        out << std::left << std::setw(12) << m.name << std::right << std::setw(12) << m.youngs_modulus_2d
+            << std::setw(8) << m.poisson_ratio << std::setw(10) << m.bending_rigidity / units::electronvolt
+            << std::setw(10) << m.nominal_thickness / units::nanometer << std::setw(16);
+        if (m.fracture_strain > 0.0)
+          out << m.fracture_strain;
+        else
+          out << "unknown";
+        out << '\n';
+      }
+    out << "\nInterfaces\n";
+    out << std::left << std::setw(12) << "sheet" << std::setw(12) << "substrate" << std::right << std::setw(16)
+        << "Gamma [J/m^2]" << std::setw(18) << "Gamma [meV/A^2]" << '\n';
+    for (const auto &i : interface_list)
+      out << std::left << std::setw(12) << i.sheet << std::setw(12) << i.substrate << std::right << std::setw(16)
+          << i.work_of_adhesion << std::setw(18) << i.work_of_adhesion / units::mev_per_angstrom2 << '\n';
+    out.flags(flags);
+    out.precision(precision);
+  }
+} // namespace nappe

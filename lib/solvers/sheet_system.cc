@@ -1,0 +1,259 @@
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/dofs/dof_tools.h>
+#include <deal.II/fe/fe_interface_values.h>
+#include <deal.II/fe/fe_q.h>
+#include <deal.II/fe/fe_values.h>
+#include <deal.II/grid/grid_tools.h>
+#include <deal.II/lac/dynamic_sparsity_pattern.h>
+#include <deal.II/lac/sparsity_tools.h>
+#include <deal.II/numerics/vector_tools.h>
+
+#include <nappe/physics/fvk_kinematics.h>
+#include <nappe/solvers/sheet_system.h>
+
+#include <limits>
+
+namespace nappe
+{
+  using namespace dealii;
+
+  namespace
+  {
+    const FEValuesExtractors::Vector in_plane(0);
+    const FEValuesExtractors::Scalar deflection(2);
+
+
+    bool supports_deflection(const EdgeCondition &e) { return e.deflection != DeflectionCondition::free; }
+
+    /// The mesh vertex nearest to @p target among those passing @p accept, agreed on by all ranks
+    /// (ties broken by the smaller x, then y). Throws if no rank has such a vertex.
+    template <class Accept>
+    Point<2> agreed_vertex(const DoFHandler<2> &dofs, const Point<2> &target, Accept &&accept, MPI_Comm comm)
+    {
+      double   best = std::numeric_limits<double>::max();
+      Point<2> best_point;
+      for (const auto &cell : dofs.active_cell_iterators())
+        if (cell->is_locally_owned())
+          for (const unsigned int v : cell->vertex_indices())
+            if (accept(cell->vertex(v)) && cell->vertex(v).distance(target) < best)
+              {
+                best       = cell->vertex(v).distance(target);
+                best_point = cell->vertex(v);
+              }
+      const double global_best = Utilities::MPI::min(best, comm);
+      AssertThrow(global_best < std::numeric_limits<double>::max(),
+                  ExcMessage("No mesh vertex is available to pin a rigid-body mode."));
+      const double tol = 1e-9 * (1.0 + target.norm() + global_best);
+      const double big = std::numeric_limits<double>::max();
+      const bool   mine = best <= global_best + tol;
+      const double x    = Utilities::MPI::min(mine ? best_point[0] : big, comm);
+      const double y =
+        Utilities::MPI::min(mine && std::abs(best_point[0] - x) <= tol ? best_point[1] : big, comm);
+      return Point<2>(x, y);
+    }
+  } // namespace
+
+  SheetSystem::SheetSystem(const SheetModel &model, const SheetDomain &domain, MPI_Comm comm)
+    : model_(model)
+    , domain_(domain)
+    , comm_(comm)
+    , tria_(comm)
+    , fe_(FE_Q<2>(model.discretization.degree), 2, FE_Q<2>(model.discretization.degree), 1)
+    , mapping_(std::make_unique<MappingQ<2>>(1))
+  {
+    AssertThrow(model.discretization.degree >= 2,
+                ExcMessage("Element degree must be at least 2 for the C0 interior penalty bending term; got " +
+                           std::to_string(model.discretization.degree) + "."));
+    AssertThrow(model.discretization.penalty_factor > 0.0, ExcMessage("The penalty factor must be positive."));
+    AssertThrow(model.material.youngs_modulus_2d >= 0.0 && model.material.bending_rigidity >= 0.0,
+                ExcMessage("Y and D must be non-negative."));
+    AssertThrow(model.material.poisson_ratio > -1.0 && model.material.poisson_ratio < 0.5 + 1e-12,
+                ExcMessage("Poisson's ratio must lie in (-1, 0.5]."));
+    make_sheet_mesh(tria_, domain_);
+    for (const auto &[id, edge] : model_.edges)
+      AssertThrow(!domain_.periodic || id > 3,
+                  ExcMessage("Boundary id " + std::to_string(id) +
+                             " of a periodic cell is periodic and cannot carry an edge condition."));
+    setup_dofs();
+    setup_constraints();
+    setup_sparsity();
+    locate_point_loads();
+  }
+
+  SheetSystem::~SheetSystem() { dof_handler_.clear(); }
+
+  types::global_dof_index SheetSystem::n_dofs() const { return dof_handler_.n_dofs(); }
+
+  void SheetSystem::setup_dofs()
+  {
+    dof_handler_.reinit(tria_);
+    dof_handler_.distribute_dofs(fe_);
+    owned_dofs_ = dof_handler_.locally_owned_dofs();
+    DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_dofs_);
+  }
+
+  void SheetSystem::setup_constraints()
+  {
+    constraints_.clear();
+    constraints_.reinit(relevant_dofs_);
+    if (domain_.periodic)
+      {
+        const auto [a1, a2] = domain_.lattice_vectors();
+        std::vector<GridTools::PeriodicFacePair<DoFHandler<2>::cell_iterator>> pairs;
+        GridTools::collect_periodic_faces(dof_handler_, 0, 1, 0, pairs, a1);
+        GridTools::collect_periodic_faces(dof_handler_, 2, 3, 1, pairs, a2);
+        DoFTools::make_periodicity_constraints<2, 2>(pairs, constraints_);
+      }
+    const Functions::ZeroFunction<2> zero(3);
+    for (const auto &[id, edge] : model_.edges)
+      {
+        if (supports_deflection(edge))
+          VectorTools::interpolate_boundary_values(*mapping_, dof_handler_, id, zero, constraints_,
+                                                   fe_.component_mask(deflection));
+        if (edge.in_plane == InPlaneCondition::fixed)
+          VectorTools::interpolate_boundary_values(*mapping_, dof_handler_, id, zero, constraints_,
+                                                   fe_.component_mask(in_plane));
+      }
+    pin_rigid_modes();
+    constraints_.close();
+  }
+
+  // Removes the modes the energy does not see: in-plane translations (and, for a sheet with no
+  // fixed edge, the in-plane rotation) and, without supports or substrate, the vertical translation.
+  void SheetSystem::pin_rigid_modes()
+  {
+    bool any_fixed = false, any_support = false;
+    for (const auto &[id, edge] : model_.edges)
+      {
+        any_fixed |= edge.in_plane == InPlaneCondition::fixed;
+        any_support |= supports_deflection(edge);
+      }
+    const Point<2> center = domain_.center();
+    auto pin = [&](const Point<2> &p, std::vector<unsigned int> components) {
+      for (const auto &cell : dof_handler_.active_cell_iterators())
+        if (!cell->is_artificial())
+          for (const unsigned int v : cell->vertex_indices())
+            if (cell->vertex(v).distance(p) < 1e-9 * (1.0 + p.norm()))
+              for (const unsigned int c : components)
+                {
+                  const auto dof = cell->vertex_dof_index(v, c);
+                  if (relevant_dofs_.is_element(dof) && !constraints_.is_constrained(dof))
+                    constraints_.add_line(dof);
+                }
+    };
+    auto anywhere = [](const Point<2> &) { return true; };
+    if (!any_fixed)
+      {
+        const Point<2> anchor = agreed_vertex(dof_handler_, center, anywhere, comm_);
+        pin(anchor, {0, 1});
+        if (!domain_.periodic)
+          {
+            // The farthest vertex on the line y = y_anchor fixes the rotation about the anchor.
+            const double extent = domain_.shape == SheetDomain::Shape::disk ? domain_.radius : domain_.length_x;
+            const Point<2> far(anchor[0] + 2.0 * extent, anchor[1]);
+            const double   tol = 1e-9 * extent;
+            const Point<2> second = agreed_vertex(
+              dof_handler_, far, [&](const Point<2> &x) { return std::abs(x[1] - anchor[1]) < tol && x[0] > anchor[0] + tol; },
+              comm_);
+            pin(second, {1});
+          }
+      }
+    if (!any_support && !model_.substrate)
+      pin(agreed_vertex(dof_handler_, center, anywhere, comm_), {2});
+  }
+
+  void SheetSystem::setup_sparsity()
+  {
+    DynamicSparsityPattern dsp(relevant_dofs_);
+    DoFTools::make_sparsity_pattern(dof_handler_, dsp, constraints_, false,
+                                    Utilities::MPI::this_mpi_process(comm_));
+    // Edge terms couple the w dofs of the two cells sharing an edge.
+    std::vector<types::global_dof_index> here(fe_.n_dofs_per_cell()), there(fe_.n_dofs_per_cell());
+    std::vector<types::global_dof_index> coupled;
+    for (const auto &cell : dof_handler_.active_cell_iterators())
+      if (cell->is_locally_owned())
+        for (const unsigned int f : cell->face_indices())
+          {
+            if (cell->at_boundary(f) && !cell->has_periodic_neighbor(f))
+              continue;
+            const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
+            cell->get_dof_indices(here);
+            neighbor->get_dof_indices(there);
+            coupled.clear();
+            for (unsigned int i = 0; i < fe_.n_dofs_per_cell(); ++i)
+              if (fe_.system_to_component_index(i).first == 2)
+                {
+                  coupled.push_back(here[i]);
+                  coupled.push_back(there[i]);
+                }
+            constraints_.add_entries_local_to_global(coupled, dsp, false);
+          }
+    SparsityTools::distribute_sparsity_pattern(dsp, owned_dofs_, comm_, relevant_dofs_);
+    hessian_.reinit(owned_dofs_, owned_dofs_, dsp, comm_);
+  }
+
+  // The w shape functions at @p p on exactly one rank (the lowest that owns a cell containing it);
+  // empty on the others.
+  SheetSystem::PointEvaluation SheetSystem::evaluate_at(const Point<2> &p) const
+  {
+    const unsigned int rank    = Utilities::MPI::this_mpi_process(comm_);
+    const unsigned int n_ranks = Utilities::MPI::n_mpi_processes(comm_);
+    std::pair<DoFHandler<2>::active_cell_iterator, Point<2>> found;
+    bool here = false;
+    try
+      {
+        found = GridTools::find_active_cell_around_point(*mapping_, dof_handler_, p);
+        here  = found.first.state() == IteratorState::valid && found.first->is_locally_owned();
+      }
+    catch (const std::exception &)
+      {
+      }
+    const unsigned int owner = Utilities::MPI::min(here ? rank : n_ranks, comm_);
+    AssertThrow(owner < n_ranks, ExcMessage("The point (" + std::to_string(p[0] / 1e-9) + ", " +
+                                            std::to_string(p[1] / 1e-9) + ") nm lies outside the sheet."));
+    PointEvaluation eval;
+    if (owner == rank)
+      {
+        eval.dofs.resize(fe_.n_dofs_per_cell());
+        found.first->get_dof_indices(eval.dofs);
+        for (unsigned int i = 0; i < fe_.n_dofs_per_cell(); ++i)
+          eval.w_shape_values.push_back(
+            fe_.system_to_component_index(i).first == 2 ? fe_.shape_value(i, found.second) : 0.0);
+      }
+    return eval;
+  }
+
+  void SheetSystem::locate_point_loads()
+  {
+    for (const PointLoad &load : model_.loads.point_loads)
+      {
+        auto eval   = std::make_unique<PointEvaluation>(evaluate_at(load.location));
+        eval->force = load.force;
+        point_loads_.push_back(std::move(eval));
+      }
+  }
+
+  double SheetSystem::deflection_at(const Vector &state, const Point<2> &p) const
+  {
+    const PointEvaluation eval = evaluate_at(p);
+    double                w    = 0.0;
+    for (unsigned int i = 0; i < eval.dofs.size(); ++i)
+      w += state(eval.dofs[i]) * eval.w_shape_values[i];
+    return Utilities::MPI::sum(w, comm_);
+  }
+
+  Vector SheetSystem::make_owned_vector() const { return Vector(owned_dofs_, comm_); }
+
+  Vector SheetSystem::make_ghosted_vector() const { return Vector(owned_dofs_, relevant_dofs_, comm_); }
+
+  EnergyParts SheetSystem::energy(const Vector &state, double load_factor) const
+  {
+    return assemble_parts(state, load_factor, nullptr, nullptr);
+  }
+
+  EnergyParts SheetSystem::assemble(const Vector &state, double load_factor, Vector &residual,
+                                    SparseMatrix *hessian) const
+  {
+    return assemble_parts(state, load_factor, &residual, hessian);
+  }
+} // namespace nappe

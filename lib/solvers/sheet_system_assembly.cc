@@ -1,0 +1,270 @@
+// Assembly of the sheet energy, its gradient and its Hessian (see sheet_system.h for the form).
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/fe/fe_interface_values.h>
+#include <deal.II/fe/fe_values.h>
+#include <deal.II/lac/full_matrix.h>
+#include <deal.II/lac/vector.h>
+
+#include <nappe/physics/fvk_kinematics.h>
+#include <nappe/solvers/sheet_system.h>
+
+namespace nappe
+{
+  using namespace dealii;
+
+  namespace
+  {
+    const FEValuesExtractors::Vector in_plane(0);
+    const FEValuesExtractors::Scalar deflection(2);
+    constexpr unsigned int w_component = 2;
+  } // namespace
+
+  EnergyParts SheetSystem::assemble_parts(const Vector &state, double load_factor, Vector *residual,
+                                          SparseMatrix *hessian) const
+  {
+    if (residual)
+      *residual = 0.0;
+    if (hessian)
+      *hessian = 0.0;
+    EnergyParts parts;
+    assemble_cells(state, load_factor, residual, hessian, parts);
+    assemble_edges(state, residual, hessian, parts);
+    assemble_point_loads(state, load_factor, residual, parts);
+    if (residual)
+      residual->compress(VectorOperation::add);
+    if (hessian)
+      hessian->compress(VectorOperation::add);
+    parts.stretching    = Utilities::MPI::sum(parts.stretching, comm_);
+    parts.bending       = Utilities::MPI::sum(parts.bending, comm_);
+    parts.substrate     = Utilities::MPI::sum(parts.substrate, comm_);
+    parts.external_work = Utilities::MPI::sum(parts.external_work, comm_);
+    return parts;
+  }
+
+  void SheetSystem::assemble_cells(const Vector &state, double load_factor, Vector *residual,
+                                   SparseMatrix *hessian, EnergyParts &parts) const
+  {
+    const unsigned int p = model_.discretization.degree;
+    const QGauss<2>    quadrature(p + 1);
+    FEValues<2>        fv(*mapping_, fe_, quadrature,
+                   update_values | update_gradients | update_hessians | update_quadrature_points |
+                     update_JxW_values);
+    const unsigned int n_q = quadrature.size(), n_dofs = fe_.n_dofs_per_cell();
+
+    const SheetMaterial &mat       = model_.material;
+    const bool           nonlinear = model_.geometric_nonlinearity;
+    const SymTensor      base_strain =
+      load_factor * (model_.loads.mean_strain - model_.loads.eigenstrain);
+    const double pressure = load_factor * model_.loads.pressure;
+
+    std::vector<Tensor<2, 2>> grad_u(n_q), hess_w(n_q);
+    std::vector<Tensor<1, 2>> grad_w(n_q);
+    std::vector<double>       w(n_q);
+    std::vector<SymTensor>    d_strain(n_dofs), d_stress(n_dofs), d_curv(n_dofs), d_moment(n_dofs);
+    std::vector<Tensor<1, 2>> d_grad_w(n_dofs);
+    std::vector<double>       d_w(n_dofs);
+    FullMatrix<double>        cell_matrix(n_dofs, n_dofs);
+    dealii::Vector<double>    cell_rhs(n_dofs);
+    std::vector<types::global_dof_index> dofs(n_dofs);
+
+    for (const auto &cell : dof_handler_.active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        fv.reinit(cell);
+        fv[in_plane].get_function_gradients(state, grad_u);
+        fv[deflection].get_function_gradients(state, grad_w);
+        fv[deflection].get_function_hessians(state, hess_w);
+        fv[deflection].get_function_values(state, w);
+        cell_matrix = 0;
+        cell_rhs    = 0;
+        for (unsigned int q = 0; q < n_q; ++q)
+          {
+            const double    dA     = fv.JxW(q);
+            SymTensor       strain = base_strain + symmetrize(grad_u[q]);
+            if (nonlinear)
+              strain += 0.5 * symmetric_outer(grad_w[q], grad_w[q]);
+            const SymTensor stress    = membrane_stress(strain, mat);
+            const SymTensor curvature = symmetrize(hess_w[q]);
+            const SymTensor moment    = bending_moment(curvature, mat);
+            double          psi = 0.0, dpsi = 0.0, d2psi = 0.0;
+            if (model_.substrate)
+              model_.substrate->evaluate(fv.quadrature_point(q), w[q], psi, dpsi, d2psi);
+
+            parts.stretching += 0.5 * (stress * strain) * dA;
+            parts.bending += 0.5 * (moment * curvature) * dA;
+            parts.substrate += psi * dA;
+            parts.external_work += pressure * w[q] * dA;
+            if (!residual)
+              continue;
+
+            for (unsigned int i = 0; i < n_dofs; ++i)
+              {
+                d_grad_w[i] = fv[deflection].gradient(i, q);
+                d_w[i]      = fv[deflection].value(i, q);
+                d_strain[i] = fv[in_plane].symmetric_gradient(i, q);
+                if (nonlinear)
+                  d_strain[i] += symmetric_outer(grad_w[q], d_grad_w[i]);
+                d_curv[i] = symmetrize(fv[deflection].hessian(i, q));
+                cell_rhs(i) += (stress * d_strain[i] + moment * d_curv[i] + (dpsi - pressure) * d_w[i]) * dA;
+              }
+            if (!hessian)
+              continue;
+            for (unsigned int j = 0; j < n_dofs; ++j)
+              {
+                d_stress[j] = membrane_stress(d_strain[j], mat);
+                d_moment[j] = bending_moment(d_curv[j], mat);
+              }
+            for (unsigned int i = 0; i < n_dofs; ++i)
+              {
+                const Tensor<1, 2> stress_grad_wi = stress * d_grad_w[i];
+                for (unsigned int j = 0; j < n_dofs; ++j)
+                  {
+                    double k = d_strain[i] * d_stress[j] + d_curv[i] * d_moment[j] + d2psi * d_w[i] * d_w[j];
+                    if (nonlinear)
+                      k += stress_grad_wi * d_grad_w[j];
+                    cell_matrix(i, j) += k * dA;
+                  }
+              }
+          }
+        if (!residual)
+          continue;
+        cell->get_dof_indices(dofs);
+        if (hessian)
+          constraints_.distribute_local_to_global(cell_matrix, cell_rhs, dofs, *hessian, *residual);
+        else
+          constraints_.distribute_local_to_global(cell_rhs, dofs, *residual);
+      }
+  }
+
+  // The C0 interior penalty terms: each interior or periodic edge once (by the cell with the smaller
+  // id, or the smaller subdomain across ranks), and the clamped boundary edges.
+  void SheetSystem::assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian,
+                                   EnergyParts &parts) const
+  {
+    const unsigned int p = model_.discretization.degree;
+    const QGauss<1>    quadrature(p + 1);
+    FEInterfaceValues<2> fiv(*mapping_, fe_, quadrature,
+                             update_values | update_gradients | update_hessians | update_quadrature_points |
+                               update_JxW_values | update_normal_vectors);
+    const SheetMaterial &mat     = model_.material;
+    const double         penalty = model_.discretization.penalty_factor * p * (p + 1) * mat.bending_rigidity;
+
+    std::vector<unsigned int>            w_dofs;
+    std::vector<types::global_dof_index> w_global;
+    std::vector<double>                  jump_n, moment_nn;
+    FullMatrix<double>                   edge_matrix;
+    dealii::Vector<double>               edge_rhs;
+
+    auto clamped = [&](types::boundary_id id) {
+      const auto it = model_.edges.find(id);
+      return it != model_.edges.end() && it->second.deflection == DeflectionCondition::clamped;
+    };
+
+    for (const auto &cell : dof_handler_.active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        for (const unsigned int f : cell->face_indices())
+          {
+            double h = cell->measure() / cell->face(f)->measure();
+            if (cell->at_boundary(f) && !cell->has_periodic_neighbor(f))
+              {
+                if (!clamped(cell->face(f)->boundary_id()))
+                  continue;
+                fiv.reinit(cell, f);
+              }
+            else
+              {
+                const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
+                AssertThrow(neighbor->is_active() && neighbor->level() == cell->level(),
+                            ExcMessage("The interior penalty assembly expects a conforming mesh."));
+                if (neighbor->is_locally_owned() ? !(cell->id() < neighbor->id())
+                                                 : cell->subdomain_id() > neighbor->subdomain_id())
+                  continue;
+                const unsigned int nf =
+                  cell->at_boundary(f) ? cell->periodic_neighbor_face_no(f) : cell->neighbor_face_no(f);
+                h = std::min(h, neighbor->measure() / neighbor->face(nf)->measure());
+                fiv.reinit(cell, f, numbers::invalid_unsigned_int, neighbor, nf, numbers::invalid_unsigned_int);
+              }
+
+            // Only the w interface dofs enter the edge terms.
+            w_dofs.clear();
+            w_global.clear();
+            const auto &interface_dofs = fiv.get_interface_dof_indices();
+            for (unsigned int k = 0; k < fiv.n_current_interface_dofs(); ++k)
+              {
+                const auto   local = fiv.interface_dof_to_dof_indices(k);
+                const auto   side  = local[0] != numbers::invalid_unsigned_int ? 0 : 1;
+                if (fe_.system_to_component_index(local[side]).first == w_component)
+                  {
+                    w_dofs.push_back(k);
+                    w_global.push_back(interface_dofs[k]);
+                  }
+              }
+            const unsigned int n = w_dofs.size();
+            jump_n.resize(n);
+            moment_nn.resize(n);
+            edge_matrix.reinit(n, n);
+            edge_rhs.reinit(n);
+
+            for (const unsigned int q : fiv.quadrature_point_indices())
+              {
+                const Tensor<1, 2> &normal = fiv.normal(q);
+                double              w_jump = 0.0, w_moment = 0.0;
+                for (unsigned int a = 0; a < n; ++a)
+                  {
+                    const unsigned int k = w_dofs[a];
+                    jump_n[a]            = fiv[deflection].jump_in_gradients(k, q) * normal;
+                    moment_nn[a] =
+                      normal * (bending_moment(dealii::symmetrize(fiv[deflection].average_of_hessians(k, q)), mat) *
+                                normal);
+                    const double U = state(w_global[a]);
+                    w_jump += U * jump_n[a];
+                    w_moment += U * moment_nn[a];
+                  }
+                const double dL = fiv.JxW(q);
+                parts.bending += (-w_moment * w_jump + 0.5 * penalty / h * w_jump * w_jump) * dL;
+                if (!residual)
+                  continue;
+                for (unsigned int a = 0; a < n; ++a)
+                  {
+                    edge_rhs(a) += (-moment_nn[a] * w_jump - w_moment * jump_n[a] + penalty / h * w_jump * jump_n[a]) * dL;
+                    if (hessian)
+                      for (unsigned int b = 0; b < n; ++b)
+                        edge_matrix(a, b) += (-moment_nn[a] * jump_n[b] - moment_nn[b] * jump_n[a] +
+                                              penalty / h * jump_n[a] * jump_n[b]) *
+                                             dL;
+                  }
+              }
+            if (!residual)
+              continue;
+            if (hessian)
+              constraints_.distribute_local_to_global(edge_matrix, edge_rhs, w_global, *hessian, *residual);
+            else
+              constraints_.distribute_local_to_global(edge_rhs, w_global, *residual);
+          }
+      }
+  }
+
+  void SheetSystem::assemble_point_loads(const Vector &state, double load_factor, Vector *residual,
+                                         EnergyParts &parts) const
+  {
+    for (const auto &load : point_loads_)
+      {
+        if (load->dofs.empty())
+          continue;
+        const double force = load_factor * load->force;
+        dealii::Vector<double> local(load->dofs.size());
+        double                 w = 0.0;
+        for (unsigned int i = 0; i < load->dofs.size(); ++i)
+          {
+            w += state(load->dofs[i]) * load->w_shape_values[i];
+            local(i) = -force * load->w_shape_values[i];
+          }
+        parts.external_work += force * w;
+        if (residual)
+          constraints_.distribute_local_to_global(local, load->dofs, *residual);
+      }
+  }
+} // namespace nappe

@@ -1,0 +1,40 @@
+#pragma once
+
+// Test helper: solve a sheet model on a domain to a certified minimum in one call.
+#include <nappe/solvers/energy_minimizer.h>
+#include <nappe/solvers/sheet_system.h>
+
+#include <gtest/gtest.h>
+
+#include <cstdlib>
+#include <iostream>
+
+namespace nappe::test_support
+{
+  struct SolvedSheet
+  {
+    std::unique_ptr<SheetSystem> system;
+    Vector                       state; ///< ghosted
+    MinimizerReport              report;
+  };
+
+  /// Minimises from the flat state with @p load_steps equal load increments; fails the test if a
+  /// step does not converge to a stable state.
+  inline SolvedSheet solve_sheet(const SheetModel &model, const SheetDomain &domain, unsigned int load_steps = 1,
+                                 MPI_Comm comm = MPI_COMM_WORLD)
+  {
+    SolvedSheet out;
+    out.system = std::make_unique<SheetSystem>(model, domain, comm);
+    EnergyMinimizer minimizer(*out.system, MinimizerSettings(), std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr);
+    Vector          owned = out.system->make_owned_vector();
+    for (unsigned int step = 1; step <= load_steps; ++step)
+      {
+        out.report = minimizer.minimize(owned, double(step) / load_steps, 0.0);
+        EXPECT_TRUE(out.report.converged) << "load step " << step << ": " << out.report.message;
+        EXPECT_EQ(out.report.negative_pivots, 0u);
+      }
+    out.state = out.system->make_ghosted_vector();
+    out.state = owned;
+    return out;
+  }
+} // namespace nappe::test_support
