@@ -1,0 +1,44 @@
+#pragma once
+
+#include <nappe/solvers/energy_minimizer.h>
+
+#include <ostream>
+#include <vector>
+
+namespace nappe
+{
+  struct LoadSteppingSettings
+  {
+    /// Equal increments of the load factor λ from 0 to 1.
+    unsigned int load_steps = 4;
+    /// How often a failed increment may be halved before the solve gives up.
+    unsigned int max_step_cuts = 6;
+  };
+
+  struct LoadStep
+  {
+    double          load_factor = 0.0;
+    MinimizerReport report;
+  };
+
+  struct LoadPathReport
+  {
+    bool                  converged = false;
+    std::string           message; ///< why the solve stopped, with the last residual and what to try
+    std::vector<LoadStep> steps;   ///< converged steps, in order
+    unsigned int          newton_iterations = 0;
+    unsigned int          step_cuts         = 0;
+    double                wall_time         = 0.0; ///< [s]
+
+    /// The report of the last converged step (the result), if any.
+    const MinimizerReport &final_state() const { return steps.back().report; }
+  };
+
+  /**
+   * Follows the load path λ: 0 → 1, minimising the energy at each step from the previous
+   * (certified) state; a step that fails is retried with half the increment. @p state (owned)
+   * holds the last certified state on return; it is a result only if the report says converged.
+   */
+  LoadPathReport follow_load_path(EnergyMinimizer &minimizer, Vector &state, const LoadSteppingSettings &settings,
+                                  std::ostream *log = nullptr);
+} // namespace nappe
