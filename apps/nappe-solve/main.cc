@@ -14,6 +14,7 @@
 #include <nappe/io/sheet_run.h>
 #include <nappe/physics/material_catalogue.h>
 
+#include <cctype>
 #include <iostream>
 #include <sstream>
 
@@ -74,11 +75,27 @@ end
     for (std::size_t i = 0; i < path.size(); ++i)
       prm.leave_subsection();
   }
+
+  /// The message of an exception without deal.II's source location and stack trace.
+  std::string user_message(const std::exception &e)
+  {
+    if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))
+      {
+        std::ostringstream s;
+        deal->print_info(s);
+        std::string text = s.str();
+        while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front())))
+          text.erase(text.begin());
+        return text;
+      }
+    return e.what();
+  }
 } // namespace
 
 int main(int argc, char **argv)
 {
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
+  dealii::deal_II_exceptions::suppress_stacktrace_in_exceptions();
   const bool   root = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
   std::ostream &out = root ? std::cout : *new std::ostringstream;
   try
@@ -133,7 +150,7 @@ int main(int argc, char **argv)
   catch (const std::exception &e)
     {
       if (root)
-        std::cerr << "nappe-solve: error: " << e.what() << "\n";
+        std::cerr << "nappe-solve: error: " << user_message(e) << "\n";
       return 1;
     }
 }
