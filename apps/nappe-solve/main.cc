@@ -1,7 +1,7 @@
 // nappe-solve: runs a sheet case file end to end and writes a JSON summary and VTU fields.
 //
 // Sample runs:
-//   nappe-solve --demo                                 built-in demo case
+//   nappe-solve --demo                                 built-in demo: MoS2 on a nanopillar array
 //   nappe-solve case.prm --set "Loads/Pressure=50"     a case file with an override
 //   mpirun -np 2 nappe-solve case.prm                  distributed
 //   nappe-solve --print-defaults > case.prm            every parameter, documented, with its unit
@@ -20,31 +20,52 @@
 
 namespace
 {
-  // Demo scenario (our own): a graphene drum of 1 µm diameter, clamped on its rim, under a 100 kPa
-  // bulge pressure — the setting of a bulge test.
+  // Demo scenario (our own): a MoS2 monolayer transferred onto a square array of rounded SiO2
+  // nanopillars (pitch 100 nm, height 8 nm, radius 20 nm): does it tent between the pillars?
   const char *demo_case = R"(
 subsection Case
-  set Title = demo: graphene drum, 1 um diameter, 100 kPa bulge pressure
+  set Title = demo: MoS2 monolayer laid on a square array of rounded SiO2 nanopillars
 end
 subsection Sheet
-  set Material = graphene
+  set Material = MoS2
 end
 subsection Domain
-  set Shape = disk
-  set Radius = 500
+  set Shape = rectangle
+  set Length x = 100
+  set Length y = 100
+  set Periodic = true
+  set Coarse cells x = 4
+  set Coarse cells y = 4
   set Global refinements = 3
 end
 subsection Edges
-  set Conditions = all: clamped/fixed
+  set Conditions =
 end
-subsection Loads
-  set Pressure = 100
+subsection Substrate
+  set Enabled = true
+  set Protocol = laid down
+end
+subsection Topography
+  set Type = pillar
+  set Array = square
+  set Array pitch = 100
+  subsection Pillar
+    set Height = 8
+    set Radius = 20
+    set Edge radius = 4
+    set Foot radius = 4
+    set Sidewall angle = 70
+  end
+end
+subsection Adhesion
+  set Work of adhesion = 0.22
+  set Equilibrium separation = 0.5
 end
 subsection Solver
-  set Load steps = 4
+  set Load steps = 1
 end
 subsection Output
-  set Base name = demo-drum
+  set Base name = demo-pillars
 end
 )";
 

@@ -75,6 +75,29 @@ namespace nappe
           out[q](0) = in.solution_values[q][2] / units::nanometer;
       }
     };
+
+    /// The substrate potential's own fields (gap, contact indicator, traction…).
+    class SubstrateFields : public DataPostprocessor<2>
+    {
+    public:
+      explicit SubstrateFields(const SurfacePotential &substrate) : substrate_(substrate) {}
+      void evaluate_vector_field(const DataPostprocessorInputs::Vector<2> &in,
+                                 std::vector<dealii::Vector<double>>      &out) const override
+      {
+        std::vector<double> values;
+        for (unsigned int q = 0; q < in.solution_values.size(); ++q)
+          {
+            substrate_.fields(in.evaluation_points[q], in.solution_values[q][2], values);
+            for (unsigned int k = 0; k < values.size(); ++k)
+              out[q][k] = values[k];
+          }
+      }
+      std::vector<std::string> get_names() const override { return substrate_.field_names(); }
+      UpdateFlags get_needed_update_flags() const override { return update_values | update_quadrature_points; }
+
+    private:
+      const SurfacePotential &substrate_;
+    };
   } // namespace
 
   std::string write_fields(const SheetSystem &system, const Vector &state, double load_factor,
@@ -86,6 +109,12 @@ namespace nappe
     data_out.attach_dof_handler(system.dof_handler());
     data_out.add_data_vector(state, deflection);
     data_out.add_data_vector(state, derived);
+    std::unique_ptr<SubstrateFields> substrate;
+    if (system.model().substrate && !system.model().substrate->field_names().empty())
+      {
+        substrate = std::make_unique<SubstrateFields>(*system.model().substrate);
+        data_out.add_data_vector(state, *substrate);
+      }
     dealii::Vector<float> rank(system.dof_handler().get_triangulation().n_active_cells());
     rank = Utilities::MPI::this_mpi_process(system.communicator());
     data_out.add_data_vector(rank, "mpi_rank");

@@ -2,6 +2,8 @@
 
 #include <nappe/base/units.h>
 #include <nappe/io/sheet_case.h>
+#include <nappe/geometry/topography_factory.h>
+#include <nappe/physics/adhesion_law_factory.h>
 #include <nappe/physics/material_catalogue.h>
 
 namespace nappe
@@ -140,6 +142,21 @@ namespace nappe
     declare_tensor(prm, "Mean strain", "Prescribed mean in-plane strain E (u = E·x + periodic part)");
     prm.leave_subsection();
 
+    prm.enter_subsection("Substrate");
+    prm.declare_entry("Enabled", "false", Patterns::Bool(),
+                      "Lay the sheet on the substrate described by subsections Topography and Adhesion.");
+    prm.declare_entry("Gap measure", "normal", Patterns::Selection("vertical|normal"),
+                      "Gap g = w − s (vertical) or (w − s)/√(1 + |∇s|²) (along the substrate normal, first order).");
+    prm.declare_entry("Protocol", "laid down", Patterns::Selection("laid down|grown conformal"),
+                      "laid down: the sheet starts flat above the substrate's top and is pulled in (transfer); "
+                      "grown conformal: it starts on the surface at the equilibrium gap and relaxes.");
+    prm.declare_entry("Initial clearance", "0", Patterns::Double(0),
+                      "Laid down: initial height of the flat sheet above the equilibrium gap over the highest "
+                      "point of the topography [nm].");
+    prm.leave_subsection();
+    TopographyFactory::declare_parameters(prm);
+    declare_adhesion_parameters(prm);
+
     prm.enter_subsection("Solver");
     prm.declare_entry("Element degree", "2", Patterns::Integer(2, 4), "Degree p of the Lagrange elements [-].");
     prm.declare_entry("Penalty factor", "2", Patterns::Double(0),
@@ -206,6 +223,19 @@ namespace nappe
          force * units::nanonewton});
     c.model.loads.mean_strain = parse_tensor(prm, "Mean strain");
     prm.leave_subsection();
+
+    prm.enter_subsection("Substrate");
+    const bool  with_substrate = prm.get_bool("Enabled");
+    const auto  gap_measure    = parse_gap_measure(prm.get("Gap measure"));
+    c.protocol = prm.get("Protocol") == "laid down" ? Protocol::laid_down : Protocol::grown_conformal;
+    c.initial_clearance = prm.get_double("Initial clearance") * units::nanometer;
+    prm.leave_subsection();
+    if (with_substrate)
+      {
+        std::shared_ptr<const AdhesionLaw> law = parse_adhesion_parameters(prm);
+        c.adhesion      = std::make_shared<AdhesionPotential>(TopographyFactory::parse_parameters(prm), law, gap_measure);
+        c.model.substrate = c.adhesion;
+      }
 
     prm.enter_subsection("Solver");
     c.model.discretization.degree         = prm.get_integer("Element degree");

@@ -1,4 +1,6 @@
+#include <deal.II/base/function.h>
 #include <deal.II/base/mpi.h>
+#include <deal.II/numerics/vector_tools.h>
 
 #include <nappe/base/units.h>
 #include <nappe/base/version.h>
@@ -13,6 +15,80 @@ namespace nappe
 {
   namespace
   {
+    /// w(x) of the starting state; ũ = 0.
+    class StartingHeight : public dealii::Function<2>
+    {
+    public:
+      StartingHeight(std::function<double(const dealii::Point<2> &)> w) : dealii::Function<2>(3), w_(std::move(w)) {}
+      double value(const dealii::Point<2> &p, const unsigned int component) const override
+      {
+        return component == 2 ? w_(p) : 0.0;
+      }
+
+    private:
+      std::function<double(const dealii::Point<2> &)> w_;
+    };
+
+    double highest_substrate_point(const SheetSystem &system, const Topography &topography)
+    {
+      double top = -std::numeric_limits<double>::max();
+      for (const auto &cell : system.dof_handler().active_cell_iterators())
+        if (cell->is_locally_owned())
+          for (const unsigned int v : cell->vertex_indices())
+            top = std::max(top, topography.height(cell->vertex(v)));
+      return dealii::Utilities::MPI::max(top, system.communicator());
+    }
+
+    void write_histogram_csv(const std::string &path, const ConformationMeasures &m)
+    {
+      write_atomically(path, [&](std::ostream &out) {
+        out << "quantity,bin_low,bin_high,area_fraction\n" << std::setprecision(8);
+        for (const auto *h : {&m.principal_strain_histogram, &m.areal_strain_histogram})
+          for (std::size_t b = 0; b < h->area.size(); ++b)
+            out << h->quantity << "," << h->bin_edges[b] << "," << h->bin_edges[b + 1] << ","
+                << h->area[b] / m.sheet_area << "\n";
+      });
+    }
+
+    void write_regions_csv(const std::string &path, const ConformationMeasures &m)
+    {
+      write_atomically(path, [&](std::ostream &out) {
+        out << "region,area_nm2,max_gap_nm,x_nm,y_nm\n" << std::setprecision(8);
+        const double nm = units::nanometer;
+        for (std::size_t i = 0; i < m.suspended_regions.size(); ++i)
+          {
+            const auto &r = m.suspended_regions[i];
+            out << i + 1 << "," << r.area / (nm * nm) << "," << r.max_gap / nm << "," << r.max_gap_location[0] / nm
+                << "," << r.max_gap_location[1] / nm << "\n";
+          }
+      });
+    }
+
+    void write_conformation(JsonWriter &json, const SheetCase &c, const ConformationMeasures &m)
+    {
+      const double nm = units::nanometer;
+      json.begin_object("conformation");
+      json.value("verdict", conformation_verdict(m.conformed_fraction));
+      json.value("definition", "share of the sheet's projected area with gap <= gap of peak adhesion traction");
+      json.quantity("conformed_fraction", m.conformed_fraction, "1");
+      json.quantity("conformed_area", m.conformed_area / (nm * nm), "nm^2");
+      json.quantity("sheet_area", m.sheet_area / (nm * nm), "nm^2");
+      json.quantity("max_gap", m.max_gap / nm, "nm");
+      json.value("suspended_regions", static_cast<unsigned int>(m.suspended_regions.size()));
+      double suspended_area = 0.0;
+      for (const auto &r : m.suspended_regions)
+        suspended_area += r.area;
+      json.quantity("suspended_area", suspended_area / (nm * nm), "nm^2");
+      json.value("adhesion_law", c.adhesion->law().name());
+      json.quantity("work_of_adhesion", c.adhesion->law().work_of_adhesion(), "J/m^2");
+      json.quantity("equilibrium_gap", c.adhesion->law().equilibrium_gap() / nm, "nm");
+      json.quantity("peak_traction_gap", c.adhesion->law().peak_traction_gap() / nm, "nm");
+      json.value("gap_measure", c.adhesion->gap_measure() == GapMeasure::normal ? "normal" : "vertical");
+      json.value("topography", c.adhesion->topography().description());
+      json.value("protocol", c.protocol == Protocol::laid_down ? "laid down" : "grown conformal");
+      json.end_object();
+    }
+
     const char *caution = "Model estimate: confirm by measurement before fabrication decisions; lab work follows "
                           "local safety rules and the institution's practice.";
 
@@ -61,6 +137,12 @@ namespace nappe
       write_location(json, "max_shear_strain", r.measures.max_shear_strain, 1.0, "1");
       write_location(json, "max_curvature", r.measures.max_curvature, 1.0 / units::nanometer, "1/nm");
       json.end_object();
+      if (r.conformation)
+        write_conformation(json, c, *r.conformation);
+      json.begin_array("warnings");
+      for (const auto &w : r.warnings)
+        json.value("", w);
+      json.end_array();
       const MinimizerReport &last = r.path.final_state();
       json.begin_object("solver");
       json.value("converged", r.converged);
@@ -77,6 +159,37 @@ namespace nappe
     }
   } // namespace
 
+  std::string conformation_verdict(double fraction)
+  {
+    if (fraction >= 0.99)
+      return "conforms";
+    if (fraction >= 0.05)
+      return "partially conformed";
+    return "suspended";
+  }
+
+  Vector initial_state(const SheetSystem &system, const SheetCase &c)
+  {
+    Vector state = system.make_owned_vector();
+    if (!c.adhesion)
+      return state;
+    const Topography &s  = c.adhesion->topography();
+    const double      h0 = c.adhesion->law().equilibrium_gap();
+    std::function<double(const dealii::Point<2> &)> w;
+    if (c.protocol == Protocol::laid_down)
+      {
+        const double flat = highest_substrate_point(system, s) + h0 + c.initial_clearance;
+        w                 = [flat](const dealii::Point<2> &) { return flat; };
+      }
+    else
+      w = [&s, h0](const dealii::Point<2> &p) { return s.height(p) + h0 * std::sqrt(1.0 + s.gradient(p).norm_square()); };
+    if (c.adhesion->gap_measure() == GapMeasure::vertical && c.protocol == Protocol::grown_conformal)
+      w = [&s, h0](const dealii::Point<2> &p) { return s.height(p) + h0; };
+    dealii::VectorTools::interpolate(system.mapping(), system.dof_handler(), StartingHeight(w), state);
+    system.constraints().distribute(state);
+    return state;
+  }
+
   SheetRunResult run_sheet_case(const SheetCase &c, MPI_Comm comm, std::ostream *log)
   {
     SheetRunResult result;
@@ -86,7 +199,7 @@ namespace nappe
            << " cells, " << system.n_dofs() << " unknowns, Q" << c.model.discretization.degree << ", "
            << dealii::Utilities::MPI::n_mpi_processes(comm) << " MPI rank(s)\n";
     EnergyMinimizer minimizer(system, c.newton, log);
-    Vector          state = system.make_owned_vector();
+    Vector          state = initial_state(system, c);
     result.path           = follow_load_path(minimizer, state, c.stepping, log);
     result.converged      = result.path.converged;
     result.message        = result.path.message;
@@ -97,13 +210,27 @@ namespace nappe
     ghosted        = state;
     result.energy   = system.energy(ghosted, 1.0);
     result.measures = measure_sheet(system, ghosted, 1.0);
+    if (c.adhesion)
+      result.conformation = measure_conformation(system, ghosted, 1.0, *c.adhesion);
+    const double fracture = c.model.material.fracture_strain;
+    if (fracture > 0.0 && result.measures.max_principal_strain.value > fracture)
+      result.warnings.push_back("peak principal strain " + std::to_string(100 * result.measures.max_principal_strain.value) +
+                                " % exceeds the fracture strain of " + c.model.material.name + " (" +
+                                std::to_string(100 * fracture) + " %)");
 
     const std::string base = c.output_directory + "/" + c.output_name;
     if (c.write_fields)
       result.fields_file = write_fields(system, ghosted, 1.0, c.output_directory, c.output_name);
     result.summary_file = base + ".json";
     if (dealii::Utilities::MPI::this_mpi_process(comm) == 0)
-      write_atomically(result.summary_file, [&](std::ostream &out) { write_summary(c, system, result, out); });
+      {
+        if (result.conformation)
+          {
+            write_histogram_csv(base + "_strain_histogram.csv", *result.conformation);
+            write_regions_csv(base + "_suspended_regions.csv", *result.conformation);
+          }
+        write_atomically(result.summary_file, [&](std::ostream &out) { write_summary(c, system, result, out); });
+      }
     return result;
   }
 
@@ -120,6 +247,13 @@ namespace nappe
     out << std::setprecision(4);
     out << "Verdict: stable equilibrium (Hessian positive definite, " << r.path.newton_iterations
         << " Newton iterations in " << r.path.steps.size() << " load steps, " << r.path.wall_time << " s)\n";
+    if (r.conformation)
+      {
+        const auto &cm = *r.conformation;
+        out << "Substrate: " << conformation_verdict(cm.conformed_fraction) << " — conformed fraction "
+            << 100 * cm.conformed_fraction << " %, " << cm.suspended_regions.size() << " suspended region(s), "
+            << "largest gap " << cm.max_gap / nm << " nm\n";
+      }
     out << "Max deflection:         " << m.max_deflection.value / nm << " nm at (" << m.max_deflection.location[0] / nm
         << ", " << m.max_deflection.location[1] / nm << ") nm\n";
     out << "Peak principal strain:  " << 100 * m.max_principal_strain.value << " % at ("
@@ -129,6 +263,8 @@ namespace nappe
     out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
         << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
         << ", total " << r.energy.total() / 1e-18 << "\n";
+    for (const auto &w : r.warnings)
+      out << "WARNING: " << w << "\n";
     out << "Summary: " << r.summary_file << "\n";
     if (!r.fields_file.empty())
       out << "Fields (ParaView): " << r.fields_file << "\n";

@@ -76,8 +76,7 @@ namespace nappe
             return negative;
           }
       }
-    AssertThrow(false, ExcMessage("The Hessian stays indefinite under a shift of 1e6·diag|H|; the model is "
-                                  "probably unstable (check supports and loads)."));
+    shift = -1.0;
     return negative;
   }
 
@@ -169,6 +168,7 @@ namespace nappe
     MinimizerReport report;
     Vector          ghosted   = system_.make_ghosted_vector();
     Vector          direction = system_.make_owned_vector();
+    Vector          magnitude = system_.make_owned_vector();
     SparseMatrix   &H         = system_.hessian_matrix();
     double          tolerance = -1.0;
     auto            say       = [&](const std::string &s) {
@@ -179,12 +179,21 @@ namespace nappe
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted            = state;
-        const EnergyParts e = system_.assemble(ghosted, load_factor, residual_, &H);
+        const EnergyParts e = system_.assemble(ghosted, load_factor, residual_, &H, tolerance < 0.0 ? &magnitude : nullptr);
         const double      r = residual_.l2_norm();
+        // The tolerance is relative to the internal force magnitude (never zero at equilibrium),
+        // the initial imbalance and the caller's scale, whichever is largest.
         if (tolerance < 0.0)
-          tolerance = settings_.relative_tolerance * std::max(force_scale, r) + settings_.absolute_tolerance;
+          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm()}) +
+                      settings_.absolute_tolerance;
         double             shift    = 0.0;
         const unsigned int negative = factorize_positive_definite(shift);
+        if (shift < 0.0)
+          {
+            report.message = "the Hessian stays indefinite under a shift of 1e5·diag|H| (last residual " +
+                             std::to_string(r) + " N); the model is probably unstable: check supports and loads";
+            return report;
+          }
 
         IterationRecord rec{it, e.total(), r, 0.0, shift, negative};
         report.iterations = it;

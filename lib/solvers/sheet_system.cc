@@ -248,12 +248,12 @@ namespace nappe
 
   EnergyParts SheetSystem::energy(const Vector &state, double load_factor) const
   {
-    return assemble_parts(state, load_factor, nullptr, nullptr);
+    return assemble_parts(state, load_factor, nullptr, nullptr, nullptr);
   }
 
   EnergyParts SheetSystem::assemble(const Vector &state, double load_factor, Vector &residual,
-                                    SparseMatrix *hessian) const
+                                    SparseMatrix *hessian, Vector *force_magnitude) const
   {
-    return assemble_parts(state, load_factor, &residual, hessian);
+    return assemble_parts(state, load_factor, &residual, hessian, force_magnitude);
   }
 } // namespace nappe

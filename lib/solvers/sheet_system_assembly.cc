@@ -19,21 +19,40 @@ namespace nappe
     constexpr unsigned int w_component = 2;
   } // namespace
 
-  EnergyParts SheetSystem::assemble_parts(const Vector &state, double load_factor, Vector *residual,
-                                          SparseMatrix *hessian) const
+  namespace
   {
+    /// Adds |local| to the magnitude vector (if requested).
+    void add_magnitude(const AffineConstraints<double> &constraints, const dealii::Vector<double> &local,
+                       const std::vector<types::global_dof_index> &dofs, Vector *magnitude)
+    {
+      if (!magnitude)
+        return;
+      dealii::Vector<double> absolute(local.size());
+      for (unsigned int i = 0; i < local.size(); ++i)
+        absolute(i) = std::abs(local(i));
+      constraints.distribute_local_to_global(absolute, dofs, *magnitude);
+    }
+  } // namespace
+
+  EnergyParts SheetSystem::assemble_parts(const Vector &state, double load_factor, Vector *residual,
+                                          SparseMatrix *hessian, Vector *magnitude) const
+  {
+    if (magnitude)
+      *magnitude = 0.0;
     if (residual)
       *residual = 0.0;
     if (hessian)
       *hessian = 0.0;
     EnergyParts parts;
-    assemble_cells(state, load_factor, residual, hessian, parts);
-    assemble_edges(state, residual, hessian, parts);
+    assemble_cells(state, load_factor, residual, hessian, magnitude, parts);
+    assemble_edges(state, residual, hessian, magnitude, parts);
     assemble_point_loads(state, load_factor, residual, parts);
     if (residual)
       residual->compress(VectorOperation::add);
     if (hessian)
       hessian->compress(VectorOperation::add);
+    if (magnitude)
+      magnitude->compress(VectorOperation::add);
     parts.stretching    = Utilities::MPI::sum(parts.stretching, comm_);
     parts.bending       = Utilities::MPI::sum(parts.bending, comm_);
     parts.substrate     = Utilities::MPI::sum(parts.substrate, comm_);
@@ -42,7 +61,7 @@ namespace nappe
   }
 
   void SheetSystem::assemble_cells(const Vector &state, double load_factor, Vector *residual,
-                                   SparseMatrix *hessian, EnergyParts &parts) const
+                                   SparseMatrix *hessian, Vector *magnitude, EnergyParts &parts) const
   {
     const unsigned int p = model_.discretization.degree;
     const QGauss<2>    quadrature(p + 1);
@@ -134,13 +153,14 @@ namespace nappe
           constraints_.distribute_local_to_global(cell_matrix, cell_rhs, dofs, *hessian, *residual);
         else
           constraints_.distribute_local_to_global(cell_rhs, dofs, *residual);
+        add_magnitude(constraints_, cell_rhs, dofs, magnitude);
       }
   }
 
   // The C0 interior penalty terms: each interior or periodic edge once (by the cell with the smaller
   // id, or the smaller subdomain across ranks), and the clamped boundary edges.
   void SheetSystem::assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian,
-                                   EnergyParts &parts) const
+                                   Vector *magnitude, EnergyParts &parts) const
   {
     const unsigned int p = model_.discretization.degree;
     const QGauss<1>    quadrature(p + 1);
@@ -243,6 +263,7 @@ namespace nappe
               constraints_.distribute_local_to_global(edge_matrix, edge_rhs, w_global, *hessian, *residual);
             else
               constraints_.distribute_local_to_global(edge_rhs, w_global, *residual);
+            add_magnitude(constraints_, edge_rhs, w_global, magnitude);
           }
       }
   }

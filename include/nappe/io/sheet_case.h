@@ -3,6 +3,7 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/geometry/sheet_domain.h>
+#include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/sheet_model.h>
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/load_stepping.h>
@@ -11,6 +12,13 @@
 
 namespace nappe
 {
+  /// How the sheet meets the substrate at the start of the load path.
+  enum class Protocol
+  {
+    laid_down,      ///< starts flat at a height above the substrate's top and is pulled in (transfer)
+    grown_conformal ///< starts on the surface at the equilibrium gap and relaxes (does it stay?)
+  };
+
   /// Everything a case file defines: the physics, the mesh, the solver and the output.
   struct SheetCase
   {
@@ -22,10 +30,16 @@ namespace nappe
     std::string          output_directory = ".";
     std::string          output_name      = "sheet";
     bool                 write_fields     = true;
+    /// The substrate (topography + traction–separation law); null for a free sheet.
+    std::shared_ptr<const AdhesionPotential> adhesion;
+    Protocol protocol = Protocol::laid_down;
+    /// Laid down: initial height above the topography's highest point [m].
+    double initial_clearance = 0.0;
   };
 
   /**
-   * Declares the case file's subsections (Case, Sheet, Domain, Edges, Loads, Solver, Output), each
+   * Declares the case file's subsections (Case, Sheet, Domain, Edges, Loads, Substrate,
+   * Topography, Adhesion, Solver, Output), each
    * entry with a pattern and a documentation string that states its unit. Inputs use the units of
    * the trade (nm, N/m, eV, kPa, nN); parse_sheet_case() converts them to SI.
    */

@@ -70,8 +70,12 @@ namespace nappe
     /**
      * Energy, gradient (@p residual, owned, constrained entries zero) and, if @p hessian is not
      * null, the Hessian (constrained rows/columns replaced by a positive diagonal) at @p state.
+     * If @p force_magnitude is not null it receives the assembled absolute values of the element
+     * contributions to the residual: the size of the internal forces, a physical scale for the
+     * residual tolerance that does not vanish at equilibrium.
      */
-    EnergyParts assemble(const Vector &state, double load_factor, Vector &residual, SparseMatrix *hessian) const;
+    EnergyParts assemble(const Vector &state, double load_factor, Vector &residual, SparseMatrix *hessian,
+                         Vector *force_magnitude = nullptr) const;
 
     /// The matrix with the Hessian's sparsity pattern; reused across Newton steps.
     SparseMatrix &hessian_matrix() { return hessian_; }
@@ -94,11 +98,12 @@ namespace nappe
     void locate_point_loads();
     PointEvaluation evaluate_at(const dealii::Point<2> &p) const;
     void pin_rigid_modes();
-    EnergyParts assemble_parts(const Vector &state, double load_factor, Vector *residual,
-                               SparseMatrix *hessian) const;
+    EnergyParts assemble_parts(const Vector &state, double load_factor, Vector *residual, SparseMatrix *hessian,
+                               Vector *magnitude) const;
     void assemble_cells(const Vector &state, double load_factor, Vector *residual, SparseMatrix *hessian,
+                        Vector *magnitude, EnergyParts &parts) const;
+    void assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian, Vector *magnitude,
                         EnergyParts &parts) const;
-    void assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian, EnergyParts &parts) const;
     void assemble_point_loads(const Vector &state, double load_factor, Vector *residual,
                               EnergyParts &parts) const;
 

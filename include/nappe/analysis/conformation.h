@@ -1,0 +1,52 @@
+#pragma once
+
+#include <nappe/physics/adhesion_potential.h>
+#include <nappe/solvers/sheet_system.h>
+
+#include <vector>
+
+namespace nappe
+{
+  /// A connected region of the sheet that is not conformed (tented, bridging or delaminated).
+  struct SuspendedRegion
+  {
+    double           area    = 0.0; ///< [m²]
+    double           max_gap = 0.0; ///< largest height above the substrate [m]
+    dealii::Point<2> max_gap_location;
+
+    template <class Archive>
+    void serialize(Archive &ar, const unsigned int)
+    {
+      ar &area &max_gap &max_gap_location;
+    }
+  };
+
+  /// An area-weighted histogram of a strain measure over the sheet.
+  struct StrainHistogram
+  {
+    std::string         quantity;
+    std::vector<double> bin_edges; ///< n + 1 edges [-]
+    std::vector<double> area;      ///< area per bin [m²]
+  };
+
+  /**
+   * How the sheet sits on the substrate. The conformed fraction is the share of the sheet's
+   * (projected) area whose gap lies within the attractive range up to the peak traction,
+   * g ≤ g_peak of the adhesion law. Suspended regions are the connected sets of cells (across
+   * periodic edges too) in which more than half the area is not conformed.
+   */
+  struct ConformationMeasures
+  {
+    double                       conformed_fraction = 0.0; ///< [-]
+    double                       conformed_area     = 0.0; ///< [m²]
+    double                       sheet_area         = 0.0; ///< [m²]
+    double                       max_gap            = 0.0; ///< [m]
+    dealii::Point<2>             max_gap_location;
+    std::vector<SuspendedRegion> suspended_regions; ///< largest first
+    StrainHistogram              principal_strain_histogram;
+    StrainHistogram              areal_strain_histogram;
+  };
+
+  ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, double load_factor,
+                                            const AdhesionPotential &adhesion, unsigned int histogram_bins = 20);
+} // namespace nappe
