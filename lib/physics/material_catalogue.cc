@@ -109,9 +109,14 @@ namespace nappe
 
   std::string MaterialCatalogue::default_path()
   {
+    // The environment wins; then the installed copy; then the source tree (build-tree use).
     const char *env = std::getenv("NAPPE_DATA_DIR");
-    const std::string dir = (env != nullptr && *env != '\0') ? std::string(env) : std::string(NAPPE_DATA_DIR);
-    return dir + "/materials.prm";
+    if (env != nullptr && *env != '\0')
+      return std::string(env) + "/materials.prm";
+    const std::string installed = std::string(NAPPE_INSTALLED_DATA_DIR) + "/materials.prm";
+    if (std::ifstream(installed).good())
+      return installed;
+    return std::string(NAPPE_DATA_DIR) + "/materials.prm";
   }
 
   MaterialCatalogue::MaterialCatalogue()

@@ -36,8 +36,8 @@ namespace nappe
 
     /**
      * Path of the shipped catalogue: $NAPPE_DATA_DIR/materials.prm if the environment variable
-     * NAPPE_DATA_DIR is set, otherwise <NAPPE_DATA_DIR>/materials.prm with the directory compiled
-     * into the library (the source-tree share/ directory).
+     * NAPPE_DATA_DIR is set; otherwise the installed copy (<prefix>/share/nappe/materials.prm) if
+     * it exists; otherwise the source tree's share/materials.prm (use from the build tree).
      */
     static std::string default_path();
 

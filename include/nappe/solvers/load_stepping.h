@@ -11,7 +11,8 @@ namespace nappe
   {
     /// Equal increments of the load factor λ from 0 to 1.
     unsigned int load_steps = 4;
-    /// How often a failed increment may be halved before the solve gives up.
+    /// How many times in all the increment may be halved along the path before the solve gives up
+    /// (after a cut the increment stays at its reduced size).
     unsigned int max_step_cuts = 6;
   };
 
