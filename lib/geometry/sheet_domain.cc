@@ -1,19 +1,165 @@
 #include <deal.II/grid/grid_generator.h>
+#include <deal.II/grid/grid_in.h>
 #include <deal.II/grid/grid_tools.h>
 #include <deal.II/grid/manifold_lib.h>
+#include <deal.II/grid/tria.h>
 
 #include <nappe/geometry/sheet_domain.h>
 
+#include <algorithm>
 #include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <limits>
+#include <map>
+#include <memory>
+#include <mutex>
+#include <set>
+#include <sstream>
 
 namespace nappe
 {
   using namespace dealii;
 
+  namespace
+  {
+    /// What the geometric queries need to know about a mesh file, in metres.
+    struct MeshFileGeometry
+    {
+      double   area = 0.0;
+      Point<2> centroid;
+      Point<2> lower, upper;
+      /// Per boundary id: number of faces, Σ length·midpoint and Σ length.
+      struct Edge
+      {
+        unsigned int n_faces = 0;
+        Tensor<1, 2> weighted_midpoints;
+        double       length = 0.0;
+      };
+      std::map<types::boundary_id, Edge> edges;
+    };
+
+    /// Reads @p d's mesh file into @p tria (serial, empty) and scales it; throws naming the file.
+    void read_mesh_file(Triangulation<2> &tria, const SheetDomain &d)
+    {
+      const std::string &file = d.mesh_file;
+      AssertThrow(!file.empty(), ExcMessage("Domain shape 'mesh file' needs a mesh file name (Domain/Mesh file)."));
+      AssertThrow(d.mesh_scale > 0.0, ExcMessage("The mesh scale of '" + file + "' must be positive; got " +
+                                                 std::to_string(d.mesh_scale) + "."));
+      std::ifstream in(file);
+      AssertThrow(std::filesystem::is_regular_file(file) && in,
+                  ExcMessage("The mesh file '" + file + "' does not exist or cannot be opened (working directory '" +
+                             std::filesystem::current_path().string() + "')."));
+      GridIn<2> grid_in;
+      grid_in.attach_triangulation(tria);
+      try
+        {
+          grid_in.read_msh(in);
+        }
+      catch (const std::exception &e)
+        {
+          AssertThrow(false, ExcMessage("The mesh file '" + file +
+                                        "' could not be read as a Gmsh .msh file (ASCII format 2.2 or 4.1): " +
+                                        e.what()));
+        }
+      AssertThrow(tria.n_active_cells() > 0, ExcMessage("The mesh file '" + file + "' contains no cells."));
+      for (const auto &cell : tria.active_cell_iterators())
+        AssertThrow(cell->reference_cell() == ReferenceCells::Quadrilateral,
+                    ExcMessage("The mesh file '" + file + "' contains a cell that is not a quadrilateral; nappe's "
+                               "elements need an all-quadrilateral mesh (Gmsh: Recombine Surface, "
+                               "Mesh.SubdivisionAlgorithm = 1)."));
+      GridTools::scale(d.mesh_scale, tria);
+    }
+
+    MeshFileGeometry compute_geometry(const SheetDomain &d)
+    {
+      Triangulation<2> tria;
+      read_mesh_file(tria, d);
+      MeshFileGeometry g;
+      g.lower = Point<2>(std::numeric_limits<double>::max(), std::numeric_limits<double>::max());
+      g.upper = Point<2>(std::numeric_limits<double>::lowest(), std::numeric_limits<double>::lowest());
+      Tensor<1, 2> moment;
+      for (const auto &cell : tria.active_cell_iterators())
+        {
+          g.area += cell->measure();
+          moment += cell->measure() * cell->center();
+          for (const unsigned int v : cell->vertex_indices())
+            for (unsigned int c = 0; c < 2; ++c)
+              {
+                g.lower[c] = std::min(g.lower[c], cell->vertex(v)[c]);
+                g.upper[c] = std::max(g.upper[c], cell->vertex(v)[c]);
+              }
+          for (const unsigned int f : cell->face_indices())
+            if (cell->at_boundary(f))
+              {
+                auto &edge = g.edges[cell->face(f)->boundary_id()];
+                ++edge.n_faces;
+                edge.weighted_midpoints += cell->face(f)->measure() * cell->face(f)->center();
+                edge.length += cell->face(f)->measure();
+              }
+        }
+      g.centroid = Point<2>(moment / g.area);
+      return g;
+    }
+
+    /// The geometry of @p d's mesh file, read once per (path, scale, modification time).
+    const MeshFileGeometry &mesh_geometry(const SheetDomain &d)
+    {
+      static std::mutex                                                          mutex;
+      static std::map<std::string, std::shared_ptr<const MeshFileGeometry>> cache;
+      std::ostringstream key;
+      key.precision(17);
+      key << d.mesh_file << '|' << d.mesh_scale << '|';
+      std::error_code ec;
+      const auto      time = std::filesystem::last_write_time(d.mesh_file, ec);
+      if (!ec)
+        key << time.time_since_epoch().count();
+      const std::lock_guard<std::mutex> lock(mutex);
+      auto                              &entry = cache[key.str()];
+      if (!entry)
+        {
+          try
+            {
+              entry = std::make_shared<const MeshFileGeometry>(compute_geometry(d));
+            }
+          catch (...)
+            {
+              cache.erase(key.str());
+              throw;
+            }
+        }
+      return *entry;
+    }
+
+    bool has_cell_edges(const MeshFileGeometry &g)
+    {
+      for (types::boundary_id id = 0; id < 4; ++id)
+        if (g.edges.count(id) == 0)
+          return false;
+      return true;
+    }
+  } // namespace
+
   std::pair<Tensor<1, 2>, Tensor<1, 2>> SheetDomain::lattice_vectors() const
   {
     Tensor<1, 2> a1, a2;
-    if (shape == Shape::rhombus)
+    if (shape == Shape::mesh_file)
+      {
+        const MeshFileGeometry &g = mesh_geometry(*this);
+        if (periodic || has_cell_edges(g))
+          {
+            AssertThrow(has_cell_edges(g), ExcMessage("The periodic mesh file '" + mesh_file +
+                                                      "' needs boundary ids 0, 1, 2 and 3 on its four edges."));
+            auto c = [&](types::boundary_id id) {
+              const auto &e = g.edges.at(id);
+              return e.weighted_midpoints / e.length;
+            };
+            return {c(1) - c(0), c(3) - c(2)};
+          }
+        a1[0] = g.upper[0] - g.lower[0];
+        a2[1] = g.upper[1] - g.lower[1];
+      }
+    else if (shape == Shape::rhombus)
       {
         a1[0] = length_x;
         a2[0] = 0.5 * length_x;
@@ -29,6 +175,8 @@ namespace nappe
 
   double SheetDomain::area() const
   {
+    if (shape == Shape::mesh_file)
+      return mesh_geometry(*this).area;
     if (shape == Shape::disk)
       return M_PI * radius * radius;
     const auto [a1, a2] = lattice_vectors();
@@ -37,10 +185,54 @@ namespace nappe
 
   Point<2> SheetDomain::center() const
   {
+    if (shape == Shape::mesh_file)
+      return mesh_geometry(*this).centroid;
     if (shape == Shape::disk)
       return Point<2>();
     const auto [a1, a2] = lattice_vectors();
     return Point<2>(0.5 * (a1 + a2));
+  }
+
+  std::pair<Point<2>, Point<2>> SheetDomain::bounding_box() const
+  {
+    switch (shape)
+      {
+        case Shape::mesh_file:
+          {
+            const MeshFileGeometry &g = mesh_geometry(*this);
+            return {g.lower, g.upper};
+          }
+        case Shape::disk:
+          return {Point<2>(-radius, -radius), Point<2>(radius, radius)};
+        case Shape::rectangle:
+        case Shape::rhombus:
+          break;
+      }
+    const auto [a1, a2] = lattice_vectors();
+    Point<2> lower, upper;
+    for (const Tensor<1, 2> &corner : {a1, a2, a1 + a2})
+      for (unsigned int c = 0; c < 2; ++c)
+        {
+          lower[c] = std::min(lower[c], corner[c]);
+          upper[c] = std::max(upper[c], corner[c]);
+        }
+    return {lower, upper};
+  }
+
+  std::vector<types::boundary_id> SheetDomain::boundary_ids() const
+  {
+    std::set<types::boundary_id> ids;
+    if (shape == Shape::mesh_file)
+      for (const auto &[id, edge] : mesh_geometry(*this).edges)
+        ids.insert(id);
+    else if (shape == Shape::disk)
+      ids.insert(0);
+    else
+      ids = {0, 1, 2, 3};
+    if (periodic)
+      for (types::boundary_id id = 0; id < 4; ++id)
+        ids.erase(id);
+    return {ids.begin(), ids.end()};
   }
 
   SheetDomain::Shape SheetDomain::parse_shape(const std::string &name)
@@ -51,7 +243,10 @@ namespace nappe
       return Shape::rhombus;
     if (name == "disk")
       return Shape::disk;
-    AssertThrow(false, ExcMessage("Domain shape '" + name + "' is unknown; expected rectangle, rhombus or disk."));
+    if (name == "mesh file")
+      return Shape::mesh_file;
+    AssertThrow(false, ExcMessage("Domain shape '" + name +
+                                  "' is unknown; expected rectangle, rhombus, disk or mesh file."));
     return Shape::rectangle;
   }
 
@@ -75,6 +270,14 @@ namespace nappe
           case SheetDomain::Shape::disk:
             GridGenerator::hyper_ball_balanced(tria, Point<2>(), d.radius);
             break;
+          case SheetDomain::Shape::mesh_file:
+            {
+              // Read serially, then copy: every rank holds the whole coarse mesh, as p4est requires.
+              Triangulation<2> serial;
+              read_mesh_file(serial, d);
+              tria.copy_triangulation(serial);
+              break;
+            }
         }
     }
   } // namespace
@@ -86,23 +289,46 @@ namespace nappe
     if (!domain.periodic)
       return pairs;
     const auto [a1, a2] = domain.lattice_vectors();
-    GridTools::collect_periodic_faces(tria, 0, 1, 0, pairs, a1);
-    GridTools::collect_periodic_faces(tria, 2, 3, 1, pairs, a2);
+    try
+      {
+        GridTools::collect_periodic_faces(tria, 0, 1, 0, pairs, a1);
+        GridTools::collect_periodic_faces(tria, 2, 3, 1, pairs, a2);
+      }
+    catch (const std::exception &e)
+      {
+        AssertThrow(domain.shape != SheetDomain::Shape::mesh_file,
+                    ExcMessage("The opposite edges (ids 0/1 and 2/3) of the periodic mesh file '" + domain.mesh_file +
+                               "' do not match node for node under the translations a1, a2 of the cell; mesh "
+                               "them with Gmsh's 'Periodic Curve'. deal.II: " + e.what()));
+        throw;
+      }
     return pairs;
   }
 
   void make_sheet_mesh(parallel::distributed::Triangulation<2> &tria, const SheetDomain &domain)
   {
     AssertThrow(!(domain.periodic && domain.shape == SheetDomain::Shape::disk),
-                ExcMessage("A disk cannot be periodic; use a rectangle or a rhombus as the unit cell."));
+                ExcMessage("A disk cannot be periodic; use a rectangle, a rhombus or a mesh file as the unit cell."));
     AssertThrow(domain.length_x > 0 && domain.length_y > 0 && domain.radius > 0,
                 ExcMessage("Domain sizes must be positive."));
     make_coarse_mesh(tria, domain);
     if (domain.periodic)
       {
-        const auto pairs = collect_periodic_pairs(tria, domain);
-        AssertThrow(pairs.size() == domain.coarse_cells_x + domain.coarse_cells_y,
-                    ExcMessage("Periodic faces of the unit cell could not be matched."));
+        const auto         pairs = collect_periodic_pairs(tria, domain);
+        unsigned int expected = domain.coarse_cells_x + domain.coarse_cells_y;
+        if (domain.shape == SheetDomain::Shape::mesh_file)
+          {
+            expected = 0;
+            for (const auto &cell : tria.active_cell_iterators())
+              for (const unsigned int f : cell->face_indices())
+                if (cell->at_boundary(f) && (cell->face(f)->boundary_id() == 0 || cell->face(f)->boundary_id() == 2))
+                  ++expected;
+          }
+        AssertThrow(pairs.size() == expected,
+                    ExcMessage("Periodic faces of the unit cell could not be matched: " + std::to_string(pairs.size()) +
+                               " pairs for " + std::to_string(expected) + " faces with ids 0 and 2" +
+                               (domain.shape == SheetDomain::Shape::mesh_file ? " in '" + domain.mesh_file + "'" : "") +
+                               "."));
         tria.add_periodicity(pairs);
       }
     tria.refine_global(domain.global_refinements);

@@ -47,14 +47,7 @@ namespace nappe
       bad_edges(text, "unknown deflection condition '" + s + "'");
     }
 
-    std::vector<types::boundary_id> all_ids(const SheetDomain &d)
-    {
-      if (d.shape == SheetDomain::Shape::disk)
-        return {0};
-      if (d.periodic)
-        return {};
-      return {0, 1, 2, 3};
-    }
+    std::vector<types::boundary_id> all_ids(const SheetDomain &d) { return d.boundary_ids(); }
   } // namespace
 
   std::map<types::boundary_id, EdgeCondition> parse_edge_conditions(const std::string &text, const SheetDomain &domain)
@@ -116,13 +109,20 @@ namespace nappe
     prm.leave_subsection();
 
     prm.enter_subsection("Domain");
-    prm.declare_entry("Shape", "disk", Patterns::Selection("rectangle|rhombus|disk"),
+    prm.declare_entry("Shape", "disk", Patterns::Selection("rectangle|rhombus|disk|mesh file"),
                       "rectangle [0, Lx]×[0, Ly] (ids 0 left, 1 right, 2 bottom, 3 top); rhombus spanned by (a, 0) "
-                      "and (a/2, a√3/2), the unit cell of a hexagonal array; disk of given radius centred at 0 (id 0).");
+                      "and (a/2, a√3/2), the unit cell of a hexagonal array; disk of given radius centred at 0 (id 0); "
+                      "mesh file: the Gmsh quadrilateral mesh named by 'Mesh file' (ids = its physical line tags; "
+                      "a periodic one pairs 0/1 and 2/3, see meshes/README.md).");
     prm.declare_entry("Length x", "1000", Patterns::Double(0), "Rectangle side along x, or rhombus lattice constant [nm].");
     prm.declare_entry("Length y", "1000", Patterns::Double(0), "Rectangle side along y [nm].");
     prm.declare_entry("Radius", "500", Patterns::Double(0), "Disk radius [nm].");
-    prm.declare_entry("Periodic", "false", Patterns::Bool(), "Periodic unit cell (rectangle and rhombus only).");
+    prm.declare_entry("Periodic", "false", Patterns::Bool(), "Periodic unit cell (rectangle, rhombus or mesh file).");
+    prm.declare_entry("Mesh file", "", Patterns::Anything(),
+                      "Shape = mesh file: Gmsh .msh file (ASCII format 2.2 or 4.1, quadrilaterals), absolute or "
+                      "relative to the working directory of the run (not to the case file).");
+    prm.declare_entry("Mesh scale", "1", Patterns::Double(0),
+                      "Shape = mesh file: length of one mesh unit [nm]; coordinates in the file are multiplied by it.");
     prm.declare_entry("Coarse cells x", "1", Patterns::Integer(1, 64), "Coarse cells along x before refinement [-].");
     prm.declare_entry("Coarse cells y", "1", Patterns::Integer(1, 64), "Coarse cells along y before refinement [-].");
     prm.declare_entry("Global refinements", "4", Patterns::Integer(0, 10), "Uniform refinements of the coarse mesh [-].");
@@ -205,8 +205,13 @@ namespace nappe
     c.domain.coarse_cells_x     = prm.get_integer("Coarse cells x");
     c.domain.coarse_cells_y     = prm.get_integer("Coarse cells y");
     c.domain.global_refinements = prm.get_integer("Global refinements");
+    c.domain.mesh_file          = prm.get("Mesh file");
+    c.domain.mesh_scale         = prm.get_double("Mesh scale") * units::nanometer;
     AssertThrow(!(c.domain.periodic && c.domain.shape == SheetDomain::Shape::disk),
-                ExcMessage("Domain/Periodic = true needs Domain/Shape = rectangle or rhombus, not disk."));
+                ExcMessage("Domain/Periodic = true needs Domain/Shape = rectangle, rhombus or mesh file, not disk."));
+    AssertThrow(c.domain.shape != SheetDomain::Shape::mesh_file || !c.domain.mesh_file.empty(),
+                ExcMessage("Domain/Shape = mesh file needs Domain/Mesh file (a Gmsh .msh file)."));
+    AssertThrow(c.domain.mesh_scale > 0, ExcMessage("Domain/Mesh scale must be positive [nm per mesh unit]."));
     AssertThrow(c.domain.length_x > 0 && c.domain.length_y > 0 && c.domain.radius > 0,
                 ExcMessage("Domain/Length x, Length y and Radius must be positive [nm]."));
     prm.leave_subsection();

@@ -5,6 +5,7 @@
 #include <nappe/base/units.h>
 #include <nappe/base/version.h>
 #include <nappe/io/atomic_file.h>
+#include <nappe/geometry/topography_writer.h>
 #include <nappe/io/field_output.h>
 #include <nappe/io/json_writer.h>
 #include <nappe/io/sheet_run.h>
@@ -62,6 +63,13 @@ namespace nappe
                 << "," << r.max_gap_location[1] / nm << "\n";
           }
       });
+    }
+
+    /// The substrate height and slope sampled on a 101×101 grid over the sheet's bounding box.
+    void write_substrate_csv(const std::string &path, const SheetSystem &system, const Topography &topography)
+    {
+      const auto [lower, upper] = system.domain().bounding_box();
+      write_topography_csv(topography, path, lower, upper, 101, 101);
     }
 
     void write_conformation(JsonWriter &json, const SheetCase &c, const ConformationMeasures &m)
@@ -228,6 +236,7 @@ namespace nappe
           {
             write_histogram_csv(base + "_strain_histogram.csv", *result.conformation);
             write_regions_csv(base + "_suspended_regions.csv", *result.conformation);
+            write_substrate_csv(base + "_topography.csv", system, c.adhesion->topography());
           }
         write_atomically(result.summary_file, [&](std::ostream &out) { write_summary(c, system, result, out); });
       }

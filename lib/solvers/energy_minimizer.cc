@@ -144,9 +144,9 @@ namespace nappe
       load_factor, residual_, nullptr);
     if (residual_ * d > 0.0)
       d *= -1.0;
-    // Scale the direction so that its largest deflection is a tenth of the domain size.
-    const double size = system_.domain().shape == SheetDomain::Shape::disk ? system_.domain().radius
-                                                                            : system_.domain().length_x;
+    // Scale the direction so that its largest entry is a tenth of the domain's diameter.
+    const auto   box  = system_.domain().bounding_box();
+    const double size = box.first.distance(box.second);
     d *= 0.1 * size / d.linfty_norm();
     Vector trial = system_.make_owned_vector();
     for (double step = 1.0; step > 1e-8; step *= 0.5)

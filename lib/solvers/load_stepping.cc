@@ -21,7 +21,8 @@ namespace nappe
       {
         const double target = std::min(1.0, lambda + step);
         if (log)
-          *log << "  load step: λ = " << std::setprecision(4) << target << "\n";
+          *log << "  load step " << path.steps.size() + 1 << ": λ = " << std::setprecision(4) << target << " ("
+               << std::setprecision(3) << timer.wall_time() << " s elapsed)\n";
         MinimizerReport report = minimizer.minimize(state, target, 0.0);
         path.newton_iterations += report.iterations;
         if (report.converged)

@@ -12,6 +12,8 @@
 #include <nappe/solvers/sheet_system.h>
 
 #include <limits>
+#include <sstream>
+#include <tuple>
 
 namespace nappe
 {
@@ -51,6 +53,76 @@ namespace nappe
         Utilities::MPI::min(mine && std::abs(best_point[0] - x) <= tol ? best_point[1] : big, comm);
       return Point<2>(x, y);
     }
+
+    /**
+     * FEInterfaceValues (used by the edge terms) evaluates the two sides of a face at the same
+     * quadrature points only if both cells parametrise the face in the same direction. That holds
+     * for deal.II's own meshes and for interior faces of any consistently ordered 2D mesh, but a
+     * periodic face pair of a Gmsh mesh may be traversed in opposite directions. Checks, once per
+     * face at setup (the assembly loop stays untouched), that the points of the two sides coincide,
+     * or differ by the lattice vector on periodic faces, to 1e-8 of the face length. Collective:
+     * throws on every rank if any rank finds a mismatch.
+     */
+    void check_interface_quadrature(const DoFHandler<2> &dofs, const Mapping<2> &mapping, const FiniteElement<2> &fe,
+                                    unsigned int n_points, const SheetDomain &domain, MPI_Comm comm)
+    {
+      FEInterfaceValues<2> fiv(mapping, fe, QGauss<1>(n_points), update_quadrature_points);
+      Tensor<1, 2>         a1, a2;
+      if (domain.periodic)
+        std::tie(a1, a2) = domain.lattice_vectors();
+      std::string problem;
+      for (const auto &cell : dofs.active_cell_iterators())
+        {
+          if (!cell->is_locally_owned() || !problem.empty())
+            continue;
+          for (const unsigned int f : cell->face_indices())
+            {
+              const bool periodic = cell->at_boundary(f) && cell->has_periodic_neighbor(f);
+              if (cell->at_boundary(f) && !periodic)
+                continue;
+              const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
+              if (!neighbor->is_active() || neighbor->level() != cell->level())
+                continue; // reported by the assembly as a non-conforming mesh
+              const unsigned int nf = periodic ? cell->periodic_neighbor_face_no(f) : cell->neighbor_face_no(f);
+              fiv.reinit(cell, f, numbers::invalid_unsigned_int, neighbor, nf, numbers::invalid_unsigned_int);
+              Tensor<1, 2> offset; // x_neighbor − x_cell expected at every point
+              if (periodic)
+                switch (cell->face(f)->boundary_id())
+                  {
+                    case 0: offset = a1; break;
+                    case 1: offset = -a1; break;
+                    case 2: offset = a2; break;
+                    default: offset = -a2; break;
+                  }
+              const double tol = 1e-8 * cell->face(f)->measure();
+              for (const unsigned int q : fiv.quadrature_point_indices())
+                {
+                  const Point<2> &here  = fiv.get_fe_face_values(0).quadrature_point(q);
+                  const Point<2> &there = fiv.get_fe_face_values(1).quadrature_point(q);
+                  if ((there - here - offset).norm() > tol)
+                    {
+                      std::ostringstream msg;
+                      msg << "The quadrature points on the two sides of the " << (periodic ? "periodic " : "")
+                          << "edge at (" << here[0] << ", " << here[1] << ") m do not coincide"
+                          << (periodic ? " up to the lattice vector" : "") << " (other side at (" << there[0] << ", "
+                          << there[1] << ") m): the mesh faces are inconsistently oriented"
+                          << (domain.shape == SheetDomain::Shape::mesh_file ? " in '" + domain.mesh_file + "'" : "")
+                          << ". The C0 interior penalty terms need both cells of an edge to run along it in the "
+                             "same direction; for a periodic Gmsh mesh, mesh the opposite edges with 'Periodic "
+                             "Curve' and the same curve direction, or use a structured (Transfinite) boundary layer.";
+                      problem = msg.str();
+                      break;
+                    }
+                }
+              if (!problem.empty())
+                break;
+            }
+        }
+      const bool any = Utilities::MPI::max(problem.empty() ? 0u : 1u, comm) > 0;
+      AssertThrow(!any, ExcMessage(problem.empty() ? "The mesh faces are inconsistently oriented on another rank: "
+                                                     "quadrature points on the two sides of an edge do not coincide."
+                                                   : problem));
+    }
   } // namespace
 
   SheetSystem::SheetSystem(const SheetModel &model, const SheetDomain &domain, MPI_Comm comm)
@@ -69,12 +141,21 @@ namespace nappe
                 ExcMessage("Y and D must be non-negative."));
     AssertThrow(model.material.poisson_ratio > -1.0 && model.material.poisson_ratio < 0.5 + 1e-12,
                 ExcMessage("Poisson's ratio must lie in (-1, 0.5]."));
+    if (domain_.shape == SheetDomain::Shape::mesh_file)
+      {
+        // The rest of the solver reads the domain's size from length_x/length_y (e.g. as a length
+        // scale); for a mesh file these are the sides of its bounding box.
+        const auto [lower, upper] = domain_.bounding_box();
+        domain_.length_x          = upper[0] - lower[0];
+        domain_.length_y          = upper[1] - lower[1];
+      }
     make_sheet_mesh(tria_, domain_);
     for (const auto &[id, edge] : model_.edges)
       AssertThrow(!domain_.periodic || id > 3,
                   ExcMessage("Boundary id " + std::to_string(id) +
                              " of a periodic cell is periodic and cannot carry an edge condition."));
     setup_dofs();
+    check_interface_quadrature(dof_handler_, *mapping_, fe_, model_.discretization.degree + 1, domain_, comm_);
     setup_constraints();
     setup_sparsity();
     locate_point_loads();
@@ -152,8 +233,14 @@ namespace nappe
             const double extent = domain_.shape == SheetDomain::Shape::disk ? domain_.radius : domain_.length_x;
             const Point<2> far(anchor[0] + 2.0 * extent, anchor[1]);
             const double   tol = 1e-9 * extent;
-            const Point<2> second = agreed_vertex(
-              dof_handler_, far, [&](const Point<2> &x) { return std::abs(x[1] - anchor[1]) < tol && x[0] > anchor[0] + tol; },
+            // An unstructured mesh file may have no vertex on that line; any vertex to the right
+            // of the anchor also fixes the rotation.
+            const bool     unstructured = domain_.shape == SheetDomain::Shape::mesh_file;
+            const Point<2> second       = agreed_vertex(
+              dof_handler_, far,
+              [&](const Point<2> &x) {
+                return (unstructured || std::abs(x[1] - anchor[1]) < tol) && x[0] > anchor[0] + tol;
+              },
               comm_);
             pin(second, {1});
           }
