@@ -211,7 +211,7 @@ namespace nappe
         // energy decrease) vanishes against the energy: the state is stationary to working precision.
         const bool at_round_off = r <= 1e-6 * tolerance / settings_.relative_tolerance &&
                                   std::abs(slope) <= 1e-14 * energy_scale(e);
-        if (r <= tolerance || (negative == 0 && at_round_off))
+        if (r <= tolerance || at_round_off)
           {
             report.history.push_back(rec);
             if (negative == 0)
