@@ -51,6 +51,8 @@ namespace nappe
 
   // Factorises the Hessian held in the system; if it is indefinite, adds μ·diag|H| with μ grown
   // until the LDLᵀ factorisation has no negative pivot. Returns the pivots of the unshifted matrix.
+  // The search starts a little below the last shift that worked: a shift much larger than needed
+  // damps the soft modes (a moving adhesion front) and makes the iteration crawl.
   unsigned int EnergyMinimizer::factorize_positive_definite(double &shift)
   {
     SparseMatrix &H = system_.hessian_matrix();
@@ -63,7 +65,7 @@ namespace nappe
       diagonal_(i) = std::abs(H.diag_element(i));
     diagonal_.compress(VectorOperation::insert);
     double added = 0.0;
-    for (double mu = 1e-6; mu < 1e6; mu *= 10.0)
+    for (double mu = std::max(1e-12, 1e-2 * last_shift_); mu < 1e6; mu *= 10.0)
       {
         for (const auto i : diagonal_.locally_owned_elements())
           H.add(i, i, (mu - added) * diagonal_(i));
@@ -72,7 +74,8 @@ namespace nappe
         solver_.factorize(H);
         if (solver_.n_negative_pivots() == 0)
           {
-            shift = mu;
+            shift       = mu;
+            last_shift_ = mu;
             return negative;
           }
       }

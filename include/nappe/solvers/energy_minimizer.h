@@ -84,5 +84,6 @@ namespace nappe
     SymmetricDirectSolver solver_;
     Vector                residual_;
     Vector                diagonal_;
+    double                last_shift_ = 1e-4; ///< the last shift that made the Hessian positive definite
   };
 } // namespace nappe
