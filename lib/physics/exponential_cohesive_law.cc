@@ -8,16 +8,6 @@
 
 namespace nappe
 {
-  namespace
-  {
-    std::string to_text(const double value)
-    {
-      std::ostringstream out;
-      out << value;
-      return out.str();
-    }
-  } // namespace
-
   ExponentialCohesiveLaw::ExponentialCohesiveLaw(const double work_of_adhesion, const double equilibrium_gap,
                                                  const double characteristic_length,
                                                  const double penalty_stiffness_factor)
@@ -26,22 +16,10 @@ namespace nappe
     , delta(characteristic_length)
     , k_penalty(penalty_stiffness_factor * work_of_adhesion / (characteristic_length * characteristic_length))
   {
-    AssertThrow(std::isfinite(work_of_adhesion) && work_of_adhesion > 0.0,
-                dealii::ExcMessage("exponential-cohesive adhesion law: the work of adhesion must be a positive "
-                                   "number [J/m^2], but " +
-                                   to_text(work_of_adhesion) + " was given."));
-    AssertThrow(std::isfinite(equilibrium_gap) && equilibrium_gap > 0.0,
-                dealii::ExcMessage("exponential-cohesive adhesion law: the equilibrium gap must be a positive "
-                                   "number [m], but " +
-                                   to_text(equilibrium_gap) + " was given."));
-    AssertThrow(std::isfinite(characteristic_length) && characteristic_length > 0.0,
-                dealii::ExcMessage("exponential-cohesive adhesion law: the characteristic length must be a "
-                                   "positive number [m], but " +
-                                   to_text(characteristic_length) + " was given."));
-    AssertThrow(std::isfinite(penalty_stiffness_factor) && penalty_stiffness_factor > 0.0,
-                dealii::ExcMessage("exponential-cohesive adhesion law: the penalty stiffness factor must be a "
-                                   "positive number (dimensionless), but " +
-                                   to_text(penalty_stiffness_factor) + " was given."));
+    internal::require_positive("exponential-cohesive", "work of adhesion", "J/m^2", work_of_adhesion);
+    internal::require_positive("exponential-cohesive", "equilibrium gap", "m", equilibrium_gap);
+    internal::require_positive("exponential-cohesive", "characteristic length", "m", characteristic_length);
+    internal::require_positive("exponential-cohesive", "penalty stiffness factor", "-", penalty_stiffness_factor);
   }
 
   void ExponentialCohesiveLaw::evaluate(const double gap, double &phi, double &dphi, double &d2phi) const

@@ -7,34 +7,18 @@
 
 namespace nappe
 {
-  namespace
-  {
-    std::string to_text(const double value)
-    {
-      std::ostringstream out;
-      out << value;
-      return out.str();
-    }
-  } // namespace
-
   Vdw93Law::Vdw93Law(const double work_of_adhesion, const double equilibrium_gap,
                      const double regularization_gap_fraction)
     : gamma(work_of_adhesion)
     , h0(equilibrium_gap)
     , g_min(regularization_gap_fraction * equilibrium_gap)
   {
-    AssertThrow(std::isfinite(work_of_adhesion) && work_of_adhesion > 0.0,
-                dealii::ExcMessage("vdw-9-3 adhesion law: the work of adhesion must be a positive number "
-                                   "[J/m^2], but " +
-                                   to_text(work_of_adhesion) + " was given."));
-    AssertThrow(std::isfinite(equilibrium_gap) && equilibrium_gap > 0.0,
-                dealii::ExcMessage("vdw-9-3 adhesion law: the equilibrium gap must be a positive number [m], "
-                                   "but " +
-                                   to_text(equilibrium_gap) + " was given."));
+    internal::require_positive("vdw-9-3", "work of adhesion", "J/m^2", work_of_adhesion);
+    internal::require_positive("vdw-9-3", "equilibrium gap", "m", equilibrium_gap);
     AssertThrow(regularization_gap_fraction > 0.0 && regularization_gap_fraction < 1.0,
                 dealii::ExcMessage("vdw-9-3 adhesion law: the regularization gap fraction must lie strictly "
                                    "between 0 and 1, but " +
-                                   to_text(regularization_gap_fraction) + " was given."));
+                                   std::to_string(regularization_gap_fraction) + " was given."));
     evaluate_exact(g_min, phi_min, dphi_min, d2phi_min);
   }
 

@@ -64,4 +64,11 @@ namespace nappe
     /// Largest attractive traction, dφ/dg at peak_traction_gap() [Pa].
     double peak_traction() const;
   };
+  namespace internal
+  {
+    /// Throws "<law> adhesion law: the <quantity> must be a positive number [<unit>], but <value> was given."
+    /// unless @p value is finite and positive. Shared by the laws' constructors.
+    void require_positive(const std::string &law, const std::string &quantity, const std::string &unit,
+                          double value);
+  } // namespace internal
 } // namespace nappe
