@@ -11,10 +11,10 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/io/atomic_file.h>
+#include <nappe/io/command_line.h>
 #include <nappe/io/sheet_run.h>
 #include <nappe/physics/material_catalogue.h>
 
-#include <cctype>
 #include <iostream>
 #include <sstream>
 
@@ -72,45 +72,6 @@ end
   const char *usage = "usage: nappe-solve CASE.prm [--set Section/Entry=value]...\n"
                       "       nappe-solve --demo | --print-defaults | --validate CASE.prm | --list-materials\n";
 
-  /// Applies "Section/Sub/Entry=value" to the handler; throws naming the override if it is wrong.
-  void apply_override(dealii::ParameterHandler &prm, const std::string &assignment)
-  {
-    const auto eq = assignment.find('=');
-    AssertThrow(eq != std::string::npos,
-                dealii::ExcMessage("--set '" + assignment + "': expected Section/Entry=value."));
-    auto path = dealii::Utilities::split_string_list(assignment.substr(0, eq), '/');
-    AssertThrow(path.size() >= 2, dealii::ExcMessage("--set '" + assignment + "': expected Section/Entry=value."));
-    const std::string entry = path.back();
-    path.pop_back();
-    for (const auto &section : path)
-      prm.enter_subsection(section);
-    try
-      {
-        prm.set(entry, assignment.substr(eq + 1));
-      }
-    catch (const std::exception &e)
-      {
-        AssertThrow(false, dealii::ExcMessage("--set '" + assignment + "': no such entry, or the value does not "
-                                              "match its pattern (see --print-defaults)."));
-      }
-    for (std::size_t i = 0; i < path.size(); ++i)
-      prm.leave_subsection();
-  }
-
-  /// The message of an exception without deal.II's source location and stack trace.
-  std::string user_message(const std::exception &e)
-  {
-    if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))
-      {
-        std::ostringstream s;
-        deal->print_info(s);
-        std::string text = s.str();
-        while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front())))
-          text.erase(text.begin());
-        return text;
-      }
-    return e.what();
-  }
 } // namespace
 
 int main(int argc, char **argv)
@@ -152,7 +113,7 @@ int main(int argc, char **argv)
         {
           if (args[i] != "--set" || i + 1 == args.size())
             throw std::runtime_error("unexpected argument '" + args[i] + "'\n" + usage);
-          apply_override(prm, args[++i]);
+          nappe::apply_override(prm, args[++i]);
         }
       const nappe::SheetCase sheet_case = nappe::parse_sheet_case(prm);
       if (validate_only)
@@ -171,7 +132,7 @@ int main(int argc, char **argv)
   catch (const std::exception &e)
     {
       if (root)
-        std::cerr << "nappe-solve: error: " << user_message(e) << "\n";
+        std::cerr << "nappe-solve: error: " << nappe::user_message(e) << "\n";
       return 1;
     }
 }

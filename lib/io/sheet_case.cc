@@ -48,6 +48,121 @@ namespace nappe
     }
 
     std::vector<types::boundary_id> all_ids(const SheetDomain &d) { return d.boundary_ids(); }
+
+    void declare_limit_parameters(ParameterHandler &prm)
+    {
+      prm.enter_subsection("Adhesion limits");
+      prm.declare_entry("Lowest work of adhesion", "0.01", Patterns::Double(0),
+                        "Lower end of the range of Gamma searched for the thresholds (nappe-limits) [unit of "
+                        "Adhesion/Work of adhesion unit].");
+      prm.declare_entry("Highest work of adhesion", "1", Patterns::Double(0),
+                        "Upper end of that range [unit of Adhesion/Work of adhesion unit].");
+      prm.declare_entry("Target conformed fraction", "0.99", Patterns::Double(0, 1),
+                        "A state counts as conformed when its conformed fraction is at least this [-].");
+      prm.declare_entry("Relative tolerance", "0.002", Patterns::Double(1e-6, 0.5),
+                        "Thresholds are bracketed to [G1, G2] with ln(G2/G1) at most this [-].");
+      prm.declare_entry("Initial step", "0.05", Patterns::Double(1e-6, 1),
+                        "First continuation step in ln Gamma [-].");
+      prm.declare_entry("Largest step", "0.25", Patterns::Double(1e-6, 2), "Largest step in ln Gamma [-].");
+      prm.declare_entry("Largest fraction change", "0.02", Patterns::Double(1e-4, 1),
+                        "A step stays on its branch only if the conformed fraction changes by at most this [-].");
+      prm.declare_entry("Largest deflection change", "1", Patterns::Double(1e-3, 100),
+                        "... and the deflection by at most this many equilibrium separations h0 [-].");
+      prm.declare_entry("Maximum solves", "600", Patterns::Integer(10, 100000),
+                        "Minimisations one path may spend [-].");
+      prm.leave_subsection();
+
+      prm.enter_subsection("Fabrication check");
+      prm.declare_entry("Enabled", "false", Patterns::Bool(),
+                        "nappe-limits: add a verdict table over an interface's range of Gamma (and an aspect-ratio "
+                        "scan if Feature height entry is set).");
+      prm.declare_entry("Work of adhesion range", "0.2, 0.6", Patterns::List(Patterns::Double(0), 2, 2),
+                        "Weakest and strongest expected Gamma of the interface [unit of Adhesion/Work of adhesion "
+                        "unit].");
+      prm.declare_entry("Table rows", "5", Patterns::Integer(1, 50), "Gamma values in the verdict table [-].");
+      prm.declare_entry("Feature height entry", "", Patterns::Anything(),
+                        "Case entry holding the feature height in nm, e.g. 'Topography/Pillar/Height'; empty: no "
+                        "aspect-ratio scan.");
+      prm.declare_entry("Feature width", "0", Patterns::Double(0),
+                        "Lateral size the aspect ratio height/width refers to (wavelength, pillar diameter) [nm].");
+      prm.leave_subsection();
+    }
+
+    AdhesionPathSettings parse_limit_parameters(ParameterHandler &prm)
+    {
+      prm.enter_subsection("Adhesion");
+      const double unit = work_of_adhesion_unit_factor(prm.get("Work of adhesion unit"));
+      prm.leave_subsection();
+      prm.enter_subsection("Adhesion limits");
+      AdhesionPathSettings s;
+      s.lowest_work_of_adhesion   = prm.get_double("Lowest work of adhesion") * unit;
+      s.highest_work_of_adhesion  = prm.get_double("Highest work of adhesion") * unit;
+      s.target_fraction           = prm.get_double("Target conformed fraction");
+      s.relative_tolerance        = prm.get_double("Relative tolerance");
+      s.initial_step              = prm.get_double("Initial step");
+      s.largest_step              = prm.get_double("Largest step");
+      s.largest_fraction_change   = prm.get_double("Largest fraction change");
+      s.largest_deflection_change = prm.get_double("Largest deflection change");
+      s.max_solves                = prm.get_integer("Maximum solves");
+      prm.leave_subsection();
+      check_adhesion_path_settings(s);
+      return s;
+    }
+
+    /// The value of a "Section/…/Entry" of the handler as a number.
+    double entry_value(ParameterHandler &prm, const std::string &path_text, const std::string &what)
+    {
+      auto path = Utilities::split_string_list(path_text, '/');
+      AssertThrow(path.size() >= 2, ExcMessage(what + ": expected Section/Entry, found '" + path_text + "'."));
+      const std::string entry = path.back();
+      path.pop_back();
+      std::size_t entered = 0;
+      double      value   = 0.0;
+      try
+        {
+          for (const auto &section : path)
+            prm.enter_subsection(section), ++entered;
+          value = prm.get_double(entry);
+        }
+      catch (const std::exception &)
+        {
+          for (; entered > 0; --entered)
+            prm.leave_subsection();
+          AssertThrow(false, ExcMessage(what + ": '" + path_text + "' is not a numeric entry of the case file."));
+        }
+      for (; entered > 0; --entered)
+        prm.leave_subsection();
+      return value;
+    }
+
+    FabricationCheckSettings parse_fabrication_parameters(ParameterHandler &prm)
+    {
+      prm.enter_subsection("Adhesion");
+      const double unit = work_of_adhesion_unit_factor(prm.get("Work of adhesion unit"));
+      prm.leave_subsection();
+      FabricationCheckSettings f;
+      prm.enter_subsection("Fabrication check");
+      f.enabled                   = prm.get_bool("Enabled");
+      const auto range            = Utilities::string_to_double(Utilities::split_string_list(prm.get("Work of adhesion range")));
+      f.lowest_work_of_adhesion   = range[0] * unit;
+      f.highest_work_of_adhesion  = range[1] * unit;
+      f.rows                      = prm.get_integer("Table rows");
+      f.feature_height_entry      = prm.get("Feature height entry");
+      f.feature_width             = prm.get_double("Feature width") * units::nanometer;
+      prm.leave_subsection();
+      AssertThrow(f.lowest_work_of_adhesion > 0 && f.highest_work_of_adhesion >= f.lowest_work_of_adhesion,
+                  ExcMessage("Fabrication check/Work of adhesion range: expected 'weakest, strongest' with "
+                             "0 < weakest <= strongest."));
+      if (!f.feature_height_entry.empty())
+        {
+          f.feature_height = entry_value(prm, f.feature_height_entry, "Fabrication check/Feature height entry") *
+                             units::nanometer;
+          AssertThrow(f.feature_width > 0 && f.feature_height > 0,
+                      ExcMessage("Fabrication check: an aspect-ratio scan needs a positive Feature width [nm] and a "
+                                 "positive height in '" + f.feature_height_entry + "'."));
+        }
+      return f;
+    }
   } // namespace
 
   std::map<types::boundary_id, EdgeCondition> parse_edge_conditions(const std::string &text, const SheetDomain &domain)
@@ -156,6 +271,7 @@ namespace nappe
     prm.leave_subsection();
     TopographyFactory::declare_parameters(prm);
     declare_adhesion_parameters(prm);
+    declare_limit_parameters(prm);
 
     prm.enter_subsection("Solver");
     prm.declare_entry("Element degree", "2", Patterns::Integer(2, 4), "Degree p of the Lagrange elements [-].");
@@ -241,6 +357,8 @@ namespace nappe
         c.adhesion      = std::make_shared<AdhesionPotential>(TopographyFactory::parse_parameters(prm), law, gap_measure);
         c.model.substrate = c.adhesion;
       }
+    c.limits      = parse_limit_parameters(prm);
+    c.fabrication = parse_fabrication_parameters(prm);
 
     prm.enter_subsection("Solver");
     c.model.discretization.degree         = prm.get_integer("Element degree");

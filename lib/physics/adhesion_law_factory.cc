@@ -109,6 +109,16 @@ namespace nappe
     prm.leave_subsection();
   }
 
+  double work_of_adhesion_unit_factor(const std::string &unit)
+  {
+    if (unit == unit_j_per_m2)
+      return units::joule_per_m2;
+    AssertThrow(unit == unit_mev_per_ang2,
+                dealii::ExcMessage("Adhesion/Work of adhesion unit: expected J/m^2 or meV/A^2, found <" + unit +
+                                   ">."));
+    return units::mev_per_angstrom2;
+  }
+
   std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm)
   {
     prm.enter_subsection(subsection_name);
@@ -119,16 +129,8 @@ namespace nappe
                 dealii::ExcMessage("Adhesion/Law: expected one of " + joined_names(", ") + ", found <" + law +
                                    ">."));
 
-    const std::string unit = prm.get("Work of adhesion unit");
-    double            unit_factor = 0.0;
-    if (unit == unit_j_per_m2)
-      unit_factor = units::joule_per_m2;
-    else if (unit == unit_mev_per_ang2)
-      unit_factor = units::mev_per_angstrom2;
-    AssertThrow(unit_factor > 0.0,
-                dealii::ExcMessage("Adhesion/Work of adhesion unit: expected J/m^2 or meV/A^2, found <" + unit +
-                                   ">."));
-
+    const std::string unit        = prm.get("Work of adhesion unit");
+    const double      unit_factor = work_of_adhesion_unit_factor(unit);
     const double gamma = prm.get_double("Work of adhesion") * unit_factor;
     AssertThrow(std::isfinite(gamma) && gamma > 0.0,
                 dealii::ExcMessage("Adhesion/Work of adhesion: expected a positive energy per area in " + unit +

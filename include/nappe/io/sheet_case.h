@@ -2,9 +2,11 @@
 
 #include <deal.II/base/parameter_handler.h>
 
+#include <nappe/analysis/fabrication_check.h>
 #include <nappe/geometry/sheet_domain.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/sheet_model.h>
+#include <nappe/solvers/adhesion_path.h>
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/load_stepping.h>
 
@@ -35,11 +37,15 @@ namespace nappe
     Protocol protocol = Protocol::laid_down;
     /// Laid down: initial height above the topography's highest point [m].
     double initial_clearance = 0.0;
+    /// Range and step control of the threshold search in Γ (subsection "Adhesion limits").
+    AdhesionPathSettings limits;
+    /// Verdict table over an interface's Γ range and aspect-ratio scan (subsection "Fabrication check").
+    FabricationCheckSettings fabrication;
   };
 
   /**
    * Declares the case file's subsections (Case, Sheet, Domain, Edges, Loads, Substrate,
-   * Topography, Adhesion, Solver, Output), each
+   * Topography, Adhesion, Adhesion limits, Fabrication check, Solver, Output), each
    * entry with a pattern and a documentation string that states its unit. Inputs use the units of
    * the trade (nm, N/m, eV, kPa, nN); parse_sheet_case() converts them to SI.
    */

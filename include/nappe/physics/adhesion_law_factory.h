@@ -57,6 +57,9 @@ namespace nappe
    */
   std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm);
 
+  /// The SI factor of a value of "Adhesion/Work of adhesion unit" ("J/m^2" or "meV/A^2"); throws otherwise.
+  double work_of_adhesion_unit_factor(const std::string &unit);
+
   /**
    * Builds a law by name without a parameter file: Γ [J/m²] and h₀ [m] in SI; @p law_options
    * sets the law's own entries by their parameter-file names and in their parameter-file units

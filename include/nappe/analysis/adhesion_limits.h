@@ -1,0 +1,65 @@
+#pragma once
+
+#include <nappe/solvers/adhesion_path.h>
+
+#include <cmath>
+#include <string>
+#include <vector>
+
+namespace nappe
+{
+  /// A threshold in Γ located to a bracket [lower, upper] (J/m²), or why it was not found.
+  struct AdhesionThreshold
+  {
+    bool        found = false;
+    double      lower = 0.0; ///< [J/m²]
+    double      upper = 0.0; ///< [J/m²]
+    std::string how;         ///< how it was located, or why it was not found
+    /// The geometric mean of the bracket [J/m²].
+    double value() const { return std::sqrt(lower * upper); }
+  };
+
+  /**
+   * The three works of adhesion that decide whether a sheet stays on a topography, never to be
+   * confused:
+   *  - hold:  Γ_hold, the smallest Γ at which the conformed sheet stays conformed while Γ is
+   *           lowered (the conformed branch folds or its conformed fraction falls below the target);
+   *  - snap:  Γ_snap, the smallest Γ at which a laid-down sheet is pulled into conformation while Γ
+   *           is raised (its branch folds and it snaps in, or its fraction reaches the target);
+   *  - equal_energy: Γ_eq, the Maxwell point where the conformed branch and the least-conformed
+   *           branch (the laid-down path before its first jump) have equal energy: above it the
+   *           conformed state is the ground state.
+   * Where both branches exist, Γ_hold ≤ Γ_eq ≤ Γ_snap; Γ_snap − Γ_hold is the hysteresis.
+   */
+  struct AdhesionLimits
+  {
+    AdhesionThreshold hold;
+    AdhesionThreshold snap;
+    AdhesionThreshold equal_energy;
+    AdhesionPath      lowering; ///< from the conformed state, Γ decreasing
+    AdhesionPath      raising;  ///< from the laid-down state, Γ increasing
+  };
+
+  /// Γ_hold from a lowering path: the bracket where the fraction first falls below @p target.
+  AdhesionThreshold hold_threshold(const AdhesionPath &lowering, double target);
+
+  /// Γ_snap from a raising path: the bracket where the fraction first reaches @p target.
+  AdhesionThreshold snap_threshold(const AdhesionPath &raising, double target);
+
+  /**
+   * Γ_eq from the two paths: the root of E_conformed(Γ) − E_least(Γ) on the Γ interval where both
+   * branches were followed (each branch up to its first jump). Each branch's energy per area is
+   * interpolated by cubic Hermite polynomials with the exact slope dE/dΓ = E_adhesion/Γ (the
+   * energy is stationary in the state, so only the explicit Γ dependence remains), and the root
+   * is bisected to @p relative_tolerance in ln Γ.
+   */
+  AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising,
+                                           double relative_tolerance);
+
+  /// Follows both paths over the settings' range and locates the three thresholds.
+  AdhesionLimits find_adhesion_limits(const SheetCase &sheet_case, const AdhesionPathSettings &settings, MPI_Comm comm,
+                                      std::ostream *log = nullptr);
+
+  /// The state a path holds at exactly Γ (a stop of the path), or null if it never landed there.
+  const AdhesionPathPoint *point_at(const AdhesionPath &path, double work_of_adhesion);
+} // namespace nappe

@@ -1,0 +1,26 @@
+#pragma once
+
+#include <nappe/analysis/adhesion_limits.h>
+#include <nappe/analysis/fabrication_check.h>
+#include <nappe/io/sheet_case.h>
+
+#include <optional>
+#include <ostream>
+#include <string>
+
+namespace nappe
+{
+  /// Γ–fraction, Γ–energy and Γ–strain curves of both paths as CSV (one row per certified state).
+  void write_adhesion_paths_csv(const std::string &path, const AdhesionLimits &limits);
+
+  /// The thresholds with their brackets, the hysteresis, the paths' statistics and (if given) the
+  /// fabrication check, as JSON with units.
+  void write_limits_json(const std::string &path, const SheetCase &sheet_case, const AdhesionLimits &limits,
+                         const FabricationCheck *check);
+
+  /// A short human summary of the thresholds, every number with its unit.
+  void print_limits_summary(const SheetCase &sheet_case, const AdhesionLimits &limits, std::ostream &out);
+
+  /// The verdict table of a fabrication check.
+  void print_fabrication_check(const SheetCase &sheet_case, const FabricationCheck &check, std::ostream &out);
+} // namespace nappe

@@ -1,0 +1,51 @@
+#include <nappe/io/command_line.h>
+
+#include <cctype>
+#include <sstream>
+
+namespace nappe
+{
+  void apply_override(dealii::ParameterHandler &prm, const std::string &assignment)
+  {
+    const auto eq = assignment.find('=');
+    AssertThrow(eq != std::string::npos,
+                dealii::ExcMessage("--set '" + assignment + "': expected Section/Entry=value."));
+    auto path = dealii::Utilities::split_string_list(assignment.substr(0, eq), '/');
+    AssertThrow(path.size() >= 2, dealii::ExcMessage("--set '" + assignment + "': expected Section/Entry=value."));
+    const std::string entry = path.back();
+    path.pop_back();
+    std::size_t entered = 0;
+    try
+      {
+        for (const auto &section : path)
+          {
+            prm.enter_subsection(section);
+            ++entered;
+          }
+        prm.set(entry, assignment.substr(eq + 1));
+      }
+    catch (const std::exception &)
+      {
+        for (; entered > 0; --entered)
+          prm.leave_subsection();
+        AssertThrow(false, dealii::ExcMessage("--set '" + assignment + "': no such entry, or the value does not "
+                                              "match its pattern (see --print-defaults)."));
+      }
+    for (; entered > 0; --entered)
+      prm.leave_subsection();
+  }
+
+  std::string user_message(const std::exception &e)
+  {
+    if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))
+      {
+        std::ostringstream s;
+        deal->print_info(s);
+        std::string text = s.str();
+        while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front())))
+          text.erase(text.begin());
+        return text;
+      }
+    return e.what();
+  }
+} // namespace nappe

@@ -1,0 +1,194 @@
+#include <nappe/base/units.h>
+#include <nappe/base/version.h>
+#include <nappe/io/atomic_file.h>
+#include <nappe/io/json_writer.h>
+#include <nappe/io/limits_report.h>
+
+#include <iomanip>
+#include <sstream>
+
+namespace nappe
+{
+  namespace
+  {
+    const char *caution = "Model estimates: confirm by measurement before fabrication decisions; lab work follows "
+                          "local safety rules and the institution's practice.";
+
+    void write_threshold(JsonWriter &json, const std::string &key, const std::string &meaning,
+                         const AdhesionThreshold &t)
+    {
+      json.begin_object(key);
+      json.value("meaning", meaning);
+      json.value("found", t.found);
+      if (t.found)
+        {
+          json.quantity("value", t.value(), "J/m^2");
+          json.quantity("lower", t.lower, "J/m^2");
+          json.quantity("upper", t.upper, "J/m^2");
+        }
+      json.value("how", t.how);
+      json.end_object();
+    }
+
+    void write_path_statistics(JsonWriter &json, const std::string &key, const AdhesionPath &p)
+    {
+      unsigned int jumps = 0;
+      for (const auto &pt : p.points)
+        jumps += pt.after_jump;
+      json.begin_object(key);
+      json.value("states", static_cast<unsigned int>(p.points.size()));
+      json.value("jumps", jumps);
+      json.value("minimisations", p.solves);
+      json.value("complete", p.complete);
+      json.value("message", p.message);
+      json.quantity("wall_time", p.wall_time, "s");
+      json.end_object();
+    }
+
+    void write_check(JsonWriter &json, const FabricationCheck &check, double target)
+    {
+      json.begin_object("fabrication_check");
+      json.quantity("fracture_strain", check.fracture_strain, "1");
+      json.begin_array("rows");
+      for (const auto &r : check.rows)
+        {
+          json.begin_object();
+          json.quantity("work_of_adhesion", r.work_of_adhesion, "J/m^2");
+          json.value("laid_down_verdict", verdict(r.transferred, target));
+          json.quantity("laid_down_conformed_fraction", r.transferred.conformed_fraction, "1");
+          json.quantity("laid_down_peak_principal_strain", r.transferred.peak_principal_strain, "1");
+          json.value("conformed_start_verdict", verdict(r.grown, target));
+          json.quantity("conformed_start_conformed_fraction", r.grown.conformed_fraction, "1");
+          json.quantity("conformed_start_peak_principal_strain", r.grown.peak_principal_strain, "1");
+          if (r.margin)
+            json.quantity("margin_gamma_over_gamma_hold", *r.margin, "1");
+          json.end_object();
+        }
+      json.end_array();
+      if (check.largest_safe_aspect_ratio)
+        json.quantity("largest_safe_aspect_ratio", *check.largest_safe_aspect_ratio, "1");
+      json.value("aspect_ratio_note", check.aspect_ratio_note);
+      json.end_object();
+    }
+
+    std::string threshold_text(const AdhesionThreshold &t)
+    {
+      std::ostringstream s;
+      if (t.found)
+        s << std::setprecision(4) << t.value() << " J/m² (" << t.value() / units::mev_per_angstrom2 << " meV/Å²) in ["
+          << t.lower << ", " << t.upper << "] J/m²: " << t.how;
+      else
+        s << "not found: " << t.how;
+      return s.str();
+    }
+  } // namespace
+
+  void write_adhesion_paths_csv(const std::string &path, const AdhesionLimits &limits)
+  {
+    write_atomically(path, [&](std::ostream &out) {
+      out << "path,gamma_J_per_m2,conformed_fraction,energy_J_per_m2,stretching_J_per_m2,bending_J_per_m2,"
+             "adhesion_J_per_m2,peak_principal_strain,max_areal_strain,max_shear_strain,max_gap_nm,after_jump\n"
+          << std::setprecision(10);
+      for (const auto *p : {&limits.lowering, &limits.raising})
+        for (const auto &pt : p->points)
+          out << (p->lowering ? "down" : "up") << "," << pt.work_of_adhesion << "," << pt.conformed_fraction << ","
+              << pt.energy_per_area.total() << "," << pt.energy_per_area.stretching << ","
+              << pt.energy_per_area.bending << "," << pt.energy_per_area.substrate << "," << pt.peak_principal_strain
+              << "," << pt.max_areal_strain << "," << pt.max_shear_strain << "," << pt.max_gap * 1e9 << ","
+              << (pt.after_jump ? 1 : 0) << "\n";
+    });
+  }
+
+  void write_limits_json(const std::string &path, const SheetCase &c, const AdhesionLimits &limits,
+                         const FabricationCheck *check)
+  {
+    write_atomically(path, [&](std::ostream &out) {
+      JsonWriter json(out);
+      json.begin_object();
+      json.value("program", "nappe " + version());
+      json.value("case", c.title);
+      json.value("note", caution);
+      json.value("material", c.model.material.name);
+      json.value("topography", c.adhesion->topography().description());
+      json.value("adhesion_law", c.adhesion->law().name());
+      json.quantity("case_work_of_adhesion", c.adhesion->law().work_of_adhesion(), "J/m^2");
+      json.quantity("equilibrium_gap", c.adhesion->law().equilibrium_gap() * 1e9, "nm");
+      json.quantity("lowest_work_of_adhesion", c.limits.lowest_work_of_adhesion, "J/m^2");
+      json.quantity("highest_work_of_adhesion", c.limits.highest_work_of_adhesion, "J/m^2");
+      json.quantity("target_conformed_fraction", c.limits.target_fraction, "1");
+      json.quantity("relative_tolerance", c.limits.relative_tolerance, "1");
+      write_threshold(json, "gamma_hold", "smallest Gamma at which the conformed sheet stays conformed (Gamma lowered)",
+                      limits.hold);
+      write_threshold(json, "gamma_eq", "Gamma at which the conformed and the laid-down branch have equal energy",
+                      limits.equal_energy);
+      write_threshold(json, "gamma_snap", "smallest Gamma that pulls a laid-down sheet into conformation (Gamma raised)",
+                      limits.snap);
+      if (limits.hold.found && limits.snap.found)
+        json.quantity("hysteresis", limits.snap.value() - limits.hold.value(), "J/m^2");
+      if (limits.hold.found)
+        json.quantity("margin_case_gamma_over_gamma_hold", c.adhesion->law().work_of_adhesion() / limits.hold.value(),
+                      "1");
+      write_path_statistics(json, "lowering_path", limits.lowering);
+      write_path_statistics(json, "raising_path", limits.raising);
+      if (check)
+        write_check(json, *check, c.limits.target_fraction);
+      json.end_object();
+    });
+  }
+
+  void print_limits_summary(const SheetCase &c, const AdhesionLimits &limits, std::ostream &out)
+  {
+    const double gamma = c.adhesion->law().work_of_adhesion();
+    out << "\n== " << c.title << " ==\n" << std::setprecision(4);
+    out << "Works of adhesion (range " << c.limits.lowest_work_of_adhesion << " to " << c.limits.highest_work_of_adhesion
+        << " J/m², conformed = fraction ≥ " << 100 * c.limits.target_fraction << " %):\n";
+    out << "  Γ_hold (conformed sheet lets go as Γ is lowered):  " << threshold_text(limits.hold) << "\n";
+    out << "  Γ_eq   (conformed and laid-down states equal):     " << threshold_text(limits.equal_energy) << "\n";
+    out << "  Γ_snap (laid-down sheet pulled into conformation): " << threshold_text(limits.snap) << "\n";
+    if (limits.hold.found && limits.snap.found)
+      out << "  Hysteresis Γ_snap − Γ_hold: " << limits.snap.value() - limits.hold.value() << " J/m²\n";
+    if (limits.hold.found)
+      out << "  Case Γ = " << gamma << " J/m²: margin Γ/Γ_hold = " << gamma / limits.hold.value() << " ("
+          << (gamma >= limits.hold.value() ? "holds a conformed sheet" : "does not hold a conformed sheet") << ")\n";
+    for (const auto *p : {&limits.lowering, &limits.raising})
+      {
+        out << "  " << (p->lowering ? "Lowering" : "Raising ") << " path: " << p->points.size() << " states, "
+            << p->solves << " minimisations, " << p->wall_time << " s";
+        out << (p->complete ? "\n" : "; stopped early: " + p->message + "\n");
+      }
+  }
+
+  void print_fabrication_check(const SheetCase &c, const FabricationCheck &check, std::ostream &out)
+  {
+    const double target = c.limits.target_fraction;
+    out << "\nFabrication check: " << c.model.material.name << " on " << c.adhesion->topography().description()
+        << "\n";
+    out << "  Γ [J/m²] | laid down (transfer)             | starting conformed               | Γ/Γ_hold\n"
+        << std::fixed;
+    for (const auto &r : check.rows)
+      {
+        out << "  " << std::setw(8) << std::setprecision(3) << r.work_of_adhesion << " | " << std::setw(19)
+            << verdict(r.transferred, target) << " " << std::setw(5) << std::setprecision(1)
+            << 100 * r.transferred.conformed_fraction << " % " << std::setw(5) << std::setprecision(2)
+            << 100 * r.transferred.peak_principal_strain << " % | " << std::setw(19) << verdict(r.grown, target) << " "
+            << std::setw(5) << std::setprecision(1) << 100 * r.grown.conformed_fraction << " % " << std::setw(5)
+            << std::setprecision(2) << 100 * r.grown.peak_principal_strain << " % | ";
+        if (r.margin)
+          out << std::setprecision(2) << *r.margin;
+        else
+          out << "n/a";
+        out << "\n";
+      }
+    out << "  (each state: verdict, conformed fraction, peak principal strain)\n" << std::defaultfloat;
+    if (check.fracture_strain > 0)
+      out << "  Fracture strain of " << c.model.material.name << ": " << 100 * check.fracture_strain << " %\n";
+    else
+      out << "  Fracture strain of " << c.model.material.name << ": unknown (not in the catalogue)\n";
+    if (check.largest_safe_aspect_ratio)
+      out << "  Largest safe aspect ratio (height/width): " << std::setprecision(3) << *check.largest_safe_aspect_ratio
+          << " (" << check.aspect_ratio_note << ")\n";
+    else if (!check.aspect_ratio_note.empty())
+      out << "  Largest safe aspect ratio: not found (" << check.aspect_ratio_note << ")\n";
+    out << "  " << caution << "\n";
+  }
+} // namespace nappe

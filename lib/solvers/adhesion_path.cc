@@ -1,0 +1,224 @@
+#include <deal.II/base/timer.h>
+#include <deal.II/dofs/dof_tools.h>
+#include <deal.II/fe/component_mask.h>
+
+#include <nappe/analysis/conformation.h>
+#include <nappe/analysis/sheet_measures.h>
+#include <nappe/io/sheet_case.h>
+#include <nappe/io/sheet_run.h>
+#include <nappe/physics/scaled_potential.h>
+#include <nappe/solvers/adhesion_path.h>
+#include <nappe/solvers/energy_minimizer.h>
+#include <nappe/solvers/load_stepping.h>
+
+#include <algorithm>
+#include <cmath>
+#include <iomanip>
+#include <sstream>
+
+namespace nappe
+{
+  namespace
+  {
+    /// One path: the system with Γ scaled, the minimiser and the last certified state.
+    class PathFollower
+    {
+    public:
+      PathFollower(const SheetCase &c, const AdhesionPathSettings &s, MPI_Comm comm, std::ostream *log)
+        : case_(with_scaled_substrate(c))
+        , settings_(s)
+        , system_(case_.model, case_.domain, comm)
+        , minimizer_(system_, case_.newton, nullptr)
+        , log_(log)
+        , w_dofs_(dealii::DoFTools::extract_dofs(system_.dof_handler(), dealii::ComponentMask({false, false, true})))
+      {
+      }
+
+      AdhesionPath run(Protocol start);
+
+    private:
+      static SheetCase with_scaled_substrate(const SheetCase &c)
+      {
+        AssertThrow(c.adhesion, dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
+        SheetCase scaled      = c;
+        scaled.model.substrate = std::make_shared<ScaledPotential>(c.adhesion);
+        return scaled;
+      }
+
+      double case_gamma() const { return case_.adhesion->law().work_of_adhesion(); }
+      void   set_gamma(double gamma)
+      {
+        std::const_pointer_cast<ScaledPotential>(std::static_pointer_cast<const ScaledPotential>(case_.model.substrate))
+          ->set_factor(gamma / case_gamma());
+      }
+      AdhesionPathPoint measure(const Vector &owned, double gamma, unsigned int iterations) const;
+      double            max_deflection_change(const Vector &a, const Vector &b) const;
+      double            next_gamma(double gamma, double step, bool lowering) const;
+      void              say(const std::string &s) const
+      {
+        if (log_)
+          *log_ << s << std::flush;
+      }
+
+      SheetCase            case_;
+      AdhesionPathSettings settings_;
+      SheetSystem          system_;
+      EnergyMinimizer      minimizer_;
+      std::ostream        *log_;
+      dealii::IndexSet     w_dofs_;
+    };
+
+    AdhesionPathPoint PathFollower::measure(const Vector &owned, double gamma, unsigned int iterations) const
+    {
+      Vector ghosted = system_.make_ghosted_vector();
+      ghosted        = owned;
+      const double area = system_.domain().area();
+      const EnergyParts e = system_.energy(ghosted, 1.0);
+      AdhesionPathPoint p;
+      p.work_of_adhesion              = gamma;
+      p.energy_per_area.stretching    = e.stretching / area;
+      p.energy_per_area.bending       = e.bending / area;
+      p.energy_per_area.substrate     = e.substrate / area;
+      p.energy_per_area.external_work = e.external_work / area;
+      const ConformationMeasures cm   = measure_conformation(system_, ghosted, 1.0, *case_.adhesion, 1);
+      p.conformed_fraction            = cm.conformed_fraction;
+      p.max_gap                       = cm.max_gap;
+      const SheetMeasures sm          = measure_sheet(system_, ghosted, 1.0);
+      p.peak_principal_strain         = sm.max_principal_strain.value;
+      p.max_areal_strain              = sm.max_areal_strain.value;
+      p.max_shear_strain              = sm.max_shear_strain.value;
+      p.newton_iterations             = iterations;
+      return p;
+    }
+
+    double PathFollower::max_deflection_change(const Vector &a, const Vector &b) const
+    {
+      double change = 0.0;
+      for (const auto i : w_dofs_)
+        change = std::max(change, std::abs(a(i) - b(i)));
+      return dealii::Utilities::MPI::max(change, system_.communicator());
+    }
+
+    /// The next Γ: one step in ln Γ, not past the range's end nor past the next stop.
+    double PathFollower::next_gamma(double gamma, double step, bool lowering) const
+    {
+      double next = lowering ? std::max(settings_.lowest_work_of_adhesion, gamma * std::exp(-step))
+                             : std::min(settings_.highest_work_of_adhesion, gamma * std::exp(step));
+      for (const double stop : settings_.stops)
+        if (lowering ? (stop < gamma * (1 - 1e-12) && stop > next) : (stop > gamma * (1 + 1e-12) && stop < next))
+          next = stop;
+      return next;
+    }
+
+    std::string describe(const AdhesionPathPoint &p)
+    {
+      std::ostringstream s;
+      s << std::setprecision(5) << "  Γ = " << p.work_of_adhesion << " J/m²: conformed " << std::setprecision(4)
+        << 100 * p.conformed_fraction << " %, energy " << std::setprecision(5) << p.energy_per_area.total()
+        << " J/m², peak strain " << std::setprecision(3) << 100 * p.peak_principal_strain << " % ("
+        << p.newton_iterations << " Newton iterations)" << (p.after_jump ? " after a jump" : "") << "\n";
+      return s.str();
+    }
+
+    AdhesionPath PathFollower::run(Protocol start)
+    {
+      dealii::Timer timer;
+      AdhesionPath  path;
+      path.lowering = start == Protocol::grown_conformal;
+      double gamma  = path.lowering ? settings_.highest_work_of_adhesion : settings_.lowest_work_of_adhesion;
+      const double end = path.lowering ? settings_.lowest_work_of_adhesion : settings_.highest_work_of_adhesion;
+      say(std::string(path.lowering ? "Lowering Γ from the conformed state" : "Raising Γ from the laid-down state") +
+          "\n");
+
+      set_gamma(gamma);
+      SheetCase start_case = case_;
+      start_case.protocol  = start;
+      Vector state         = initial_state(system_, start_case);
+      const LoadPathReport load = follow_load_path(minimizer_, state, case_.stepping, nullptr);
+      path.solves += load.steps.size();
+      if (!load.converged)
+        {
+          path.message = "no stable starting state at Γ = " + std::to_string(gamma) + " J/m²: " + load.message;
+          return path;
+        }
+      path.points.push_back(measure(state, gamma, load.newton_iterations));
+      say(describe(path.points.back()));
+
+      const double h0    = case_.adhesion->law().equilibrium_gap();
+      double       step  = settings_.initial_step;
+      Vector       trial = state;
+      while (std::abs(gamma - end) > 1e-12 * end)
+        {
+          if (path.solves++ >= settings_.max_solves)
+            {
+              path.message = "gave up after " + std::to_string(settings_.max_solves) +
+                             " minimisations at Γ = " + std::to_string(gamma) +
+                             " J/m²; raise the solve budget or loosen Adhesion limits/Relative tolerance";
+              break;
+            }
+          const double next = next_gamma(gamma, step, path.lowering);
+          const bool   at_tolerance = std::abs(std::log(next / gamma)) <= settings_.relative_tolerance * 1.000001;
+          trial = state;
+          set_gamma(next);
+          const MinimizerReport report = minimizer_.minimize(trial, 1.0, 0.0);
+          if (!report.converged)
+            {
+              if (at_tolerance)
+                {
+                  std::ostringstream s;
+                  s << "no stable state at Γ = " << next << " J/m² next to the certified state at Γ = " << gamma
+                    << " J/m² (last residual " << std::scientific << std::setprecision(3) << report.residual
+                    << " N: " << report.message << "); try a finer mesh or a smaller Adhesion limits/Relative tolerance";
+                  path.message = s.str();
+                  break;
+                }
+              step *= 0.5;
+              continue;
+            }
+          AdhesionPathPoint  point = measure(trial, next, report.iterations);
+          const auto        &last  = path.points.back();
+          const bool continuous    = std::abs(point.conformed_fraction - last.conformed_fraction) <=
+                                    settings_.largest_fraction_change &&
+                                  max_deflection_change(trial, state) <= settings_.largest_deflection_change * h0;
+          const bool crosses = (point.conformed_fraction >= settings_.target_fraction) !=
+                               (last.conformed_fraction >= settings_.target_fraction);
+          if ((!continuous || crosses) && !at_tolerance)
+            {
+              step *= 0.5;
+              continue;
+            }
+          point.after_jump = !continuous;
+          state            = trial;
+          gamma            = next;
+          path.points.push_back(point);
+          say(describe(point));
+          step = continuous ? std::min(settings_.largest_step, 1.5 * step) : settings_.initial_step;
+        }
+      path.complete  = path.message.empty();
+      path.wall_time = timer.wall_time();
+      return path;
+    }
+  } // namespace
+
+  void check_adhesion_path_settings(const AdhesionPathSettings &s)
+  {
+    AssertThrow(s.lowest_work_of_adhesion > 0 && s.highest_work_of_adhesion > s.lowest_work_of_adhesion,
+                dealii::ExcMessage("Adhesion limits: expected 0 < Lowest work of adhesion < Highest work of "
+                                   "adhesion, found " + std::to_string(s.lowest_work_of_adhesion) + " and " +
+                                   std::to_string(s.highest_work_of_adhesion) + " J/m^2."));
+    AssertThrow(s.target_fraction > 0 && s.target_fraction <= 1,
+                dealii::ExcMessage("Adhesion limits/Target conformed fraction: expected a number in (0, 1]."));
+    AssertThrow(s.relative_tolerance > 0 && s.initial_step >= s.relative_tolerance &&
+                  s.largest_step >= s.initial_step,
+                dealii::ExcMessage("Adhesion limits: expected 0 < Relative tolerance <= Initial step <= "
+                                   "Largest step."));
+  }
+
+  AdhesionPath follow_adhesion_path(const SheetCase &sheet_case, Protocol start, const AdhesionPathSettings &settings,
+                                    MPI_Comm comm, std::ostream *log)
+  {
+    check_adhesion_path_settings(settings);
+    PathFollower follower(sheet_case, settings, comm, log);
+    return follower.run(start);
+  }
+} // namespace nappe
