@@ -9,6 +9,7 @@ install(TARGETS nappe EXPORT nappeTargets
         RUNTIME DESTINATION ${CMAKE_INSTALL_BINDIR})
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/include/nappe DESTINATION ${CMAKE_INSTALL_INCLUDEDIR})
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/share/ DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe OPTIONAL)
+install(PROGRAMS ${PROJECT_SOURCE_DIR}/scripts/plot_sweep.py DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
 
 set(nappe_cmake_dir ${CMAKE_INSTALL_LIBDIR}/cmake/nappe)
 install(EXPORT nappeTargets NAMESPACE nappe:: DESTINATION ${nappe_cmake_dir})

@@ -42,23 +42,20 @@ namespace nappe
       double gamma, energy, slope;
     };
 
-    std::vector<EnergySample> branch_before_first_jump(const AdhesionPath &path)
+    /// The states of a path before its first jump whose fraction is on the given side of the
+    /// target, as (Γ, E, dE/dΓ) samples in increasing Γ.
+    std::vector<EnergySample> branch(const AdhesionPath &path, double target, bool conformed)
     {
-      std::vector<EnergySample> branch;
+      std::vector<EnergySample> samples;
       for (const auto &p : path.points)
         {
-          if (p.after_jump)
+          if (p.after_jump || (p.conformed_fraction >= target) != conformed)
             break;
-          branch.push_back({p.work_of_adhesion, p.energy_per_area.total(),
-                            p.energy_per_area.substrate / p.work_of_adhesion});
+          samples.push_back({p.work_of_adhesion, p.energy_per_area.total(),
+                             p.energy_per_area.substrate / p.work_of_adhesion});
         }
-      std::sort(branch.begin(), branch.end(), [](const auto &a, const auto &b) { return a.gamma < b.gamma; });
-      return branch;
-    }
-
-    bool has_jump(const AdhesionPath &path)
-    {
-      return std::any_of(path.points.begin(), path.points.end(), [](const auto &p) { return p.after_jump; });
+      std::sort(samples.begin(), samples.end(), [](const auto &a, const auto &b) { return a.gamma < b.gamma; });
+      return samples;
     }
 
     /// Cubic Hermite interpolation of the branch energy at Γ (inside the sampled range).
@@ -117,16 +114,14 @@ namespace nappe
                      "): Γ_snap is above the range; raise Adhesion limits/Highest work of adhesion");
   }
 
-  AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising,
+  AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising, double target,
                                            double relative_tolerance)
   {
-    if (!has_jump(lowering) || !has_jump(raising))
-      return not_found("no coexisting branches: the transition between the conformed and the laid-down state is "
-                       "continuous in the range, so there is no Maxwell point");
-    const auto conformed = branch_before_first_jump(lowering);
-    const auto least     = branch_before_first_jump(raising);
+    const auto conformed = branch(lowering, target, true);
+    const auto least     = branch(raising, target, false);
     if (conformed.size() < 2 || least.size() < 2)
-      return not_found("a branch has fewer than two states before its jump; refine the path (smaller steps)");
+      return not_found("no coexisting conformed and laid-down branches were followed (each needs two states before "
+                       "its first jump or target crossing)");
     double lo = std::max(conformed.front().gamma, least.front().gamma);
     double hi = std::min(conformed.back().gamma, least.back().gamma);
     if (!(lo < hi))
@@ -154,7 +149,7 @@ namespace nappe
     limits.raising      = follow_adhesion_path(c, Protocol::laid_down, s, comm, log);
     limits.hold         = hold_threshold(limits.lowering, s.target_fraction);
     limits.snap         = snap_threshold(limits.raising, s.target_fraction);
-    limits.equal_energy = equal_energy_threshold(limits.lowering, limits.raising, s.relative_tolerance);
+    limits.equal_energy = equal_energy_threshold(limits.lowering, limits.raising, s.target_fraction, s.relative_tolerance);
     return limits;
   }
 

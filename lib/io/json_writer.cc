@@ -92,6 +92,12 @@ namespace nappe
     out_ << (v ? "true" : "false");
   }
 
+  void JsonWriter::null(const std::string &key)
+  {
+    key_prefix(key);
+    out_ << "null";
+  }
+
   void JsonWriter::value(const std::string &key, long long v)
   {
     key_prefix(key);

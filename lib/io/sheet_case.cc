@@ -63,7 +63,7 @@ namespace nappe
                         "Thresholds are bracketed to [G1, G2] with ln(G2/G1) at most this [-].");
       prm.declare_entry("Initial step", "0.05", Patterns::Double(1e-6, 1),
                         "First continuation step in ln Gamma [-].");
-      prm.declare_entry("Largest step", "0.25", Patterns::Double(1e-6, 2), "Largest step in ln Gamma [-].");
+      prm.declare_entry("Largest step", "0.1", Patterns::Double(1e-6, 2), "Largest step in ln Gamma [-].");
       prm.declare_entry("Largest fraction change", "0.02", Patterns::Double(1e-4, 1),
                         "A step stays on its branch only if the conformed fraction changes by at most this [-].");
       prm.declare_entry("Largest deflection change", "1", Patterns::Double(1e-3, 100),

@@ -226,6 +226,8 @@ namespace nappe
                                 " % exceeds the fracture strain of " + c.model.material.name + " (" +
                                 std::to_string(100 * fracture) + " %)");
 
+    if (!c.write_results)
+      return result;
     const std::string base = c.output_directory + "/" + c.output_name;
     if (c.write_fields)
       result.fields_file = write_fields(system, ghosted, 1.0, c.output_directory, c.output_name);

@@ -45,7 +45,8 @@ namespace nappe
       const double global_best = Utilities::MPI::min(best, comm);
       AssertThrow(global_best < std::numeric_limits<double>::max(),
                   ExcMessage("No mesh vertex is available to pin a rigid-body mode."));
-      const double tol = 1e-9 * (1.0 + target.norm() + global_best);
+      // Coordinates are in metres: the tolerance must scale with the mesh, not be an absolute 1e-9.
+      const double tol = 1e-9 * (target.norm() + global_best);
       const double big = std::numeric_limits<double>::max();
       const bool   mine = best <= global_best + tol;
       const double x    = Utilities::MPI::min(mine ? best_point[0] : big, comm);
@@ -210,11 +211,15 @@ namespace nappe
         any_support |= supports_deflection(edge);
       }
     const Point<2> center = domain_.center();
+    const auto     box    = domain_.bounding_box();
+    // Exactly one vertex: the tolerance is a tiny fraction of the domain (coordinates are in metres;
+    // an absolute tolerance of 1e-9 m would pin every vertex within 1 nm and clamp a patch).
+    const double   same_vertex = 1e-9 * box.first.distance(box.second);
     auto pin = [&](const Point<2> &p, std::vector<unsigned int> components) {
       for (const auto &cell : dof_handler_.active_cell_iterators())
         if (!cell->is_artificial())
           for (const unsigned int v : cell->vertex_indices())
-            if (cell->vertex(v).distance(p) < 1e-9 * (1.0 + p.norm()))
+            if (cell->vertex(v).distance(p) < same_vertex)
               for (const unsigned int c : components)
                 {
                   const auto dof = cell->vertex_dof_index(v, c);

@@ -21,7 +21,11 @@
 // Discretisation: n uniform periodic nodes x_i = iΔx, w'' ≈ (w_{i+1} − 2w_i + w_{i−1})/Δx² at node i,
 // w' ≈ (w_{i+1} − w_i)/Δx on interval i, rectangle sums (1/L)∫f dx ≈ (1/n) Σ f_i. The gradient and Hessian below
 // are those of this discrete energy, exactly; the Hessian is a periodic pentadiagonal matrix P plus, when held,
-// the dense rank-one part Ŷ (∇ε̄)(∇ε̄)ᵀ.
+// the dense rank-one part Ŷ (∇ε̄)(∇ε̄)ᵀ. Newton's method with a backtracking line search minimises it; Newton systems
+// are solved by a hand-written Cholesky factorisation of an equivalent banded matrix in O(n) (a dense factorisation
+// of the held Hessian takes ~0.1 s at n = 1024, and a threshold computation needs ~1600 Newton steps; see
+// Grating1DModel::newton_step()). A state counts as a stable minimum only if it converged with an unshifted,
+// positive definite Hessian.
 //
 // Conformed fraction: the share of the period where g ≤ g*, with g interpolated linearly between nodes (so the
 // fraction varies continuously with the state).
@@ -35,14 +39,17 @@
 //    Otherwise the step is halved; once it is ≤ tol·Γ the jump (snap) or crossing is accepted and bracketed.
 //  - Γ_hold: where the fraction first falls below the target on the downward path (the fold of the conformed
 //    branch, or a continuous crossing). Γ_snap: the smallest Γ at which the fraction reaches the target on the
-//    upward path. Γ_eq (Maxwell point): where the conformed branch (downward path before its first jump) and the
-//    least-conformed branch (upward path before its first jump) have equal energy. Along a branch of minima
-//    dE/dΓ = E_adh/Γ (envelope theorem: φ is proportional to Γ), so each branch's E(Γ) is interpolated by cubic
-//    Hermite polynomials between its points and the root of the difference is bisected where both exist.
+//    upward path. Γ_eq (Maxwell point): where the conformed branch (downward path before its first jump or target
+//    crossing) and the least-conformed branch (upward path before its first jump or target crossing) have equal
+//    energy. Along a branch of minima dE/dΓ = E_adh/Γ (envelope theorem: φ is proportional to Γ), so each branch's
+//    E(Γ) is interpolated by cubic Hermite polynomials between its points and the root of the difference is
+//    bisected where both exist. So defined, Γ_hold ≤ Γ_eq ≤ Γ_snap whenever Γ_eq is found; a bistable window wholly
+//    below the target (both folds join partially conformed states, seen for A ≈ h₀) has no Γ_eq at the target level.
 
 #include <algorithm>
 #include <cmath>
 #include <cstddef>
+#include <initializer_list>
 #include <limits>
 #include <stdexcept>
 #include <string>
@@ -51,6 +58,11 @@
 
 namespace nappe::reference
 {
+  namespace internal
+  {
+    constexpr double pi = 3.14159265358979323846;
+  }
+
   /// The grating, the sheet and the discretisation.
   struct Grating1DParameters
   {
@@ -77,7 +89,8 @@ namespace nappe::reference
     if (g >= g_c)
       {
         const double x = h0 / g, x3 = x * x * x, x9 = x3 * x3 * x3;
-        return {-gamma * (1.5 * x3 - 0.5 * x9), 4.5 * gamma / g * (x3 - x9), 4.5 * gamma / (g * g) * (10.0 * x9 - 4.0 * x3)};
+        return {-gamma * (1.5 * x3 - 0.5 * x9), 4.5 * gamma / g * (x3 - x9),
+                4.5 * gamma / (g * g) * (10.0 * x9 - 4.0 * x3)};
       }
     const AdhesionValue c = vdw93(g_c, gamma, h0);
     const double dg = g - g_c;
@@ -94,13 +107,27 @@ namespace nappe::reference
     double membrane_strain = 0; ///< ε̄ = ⟨½w'²⟩ if held, 0 if free to slide (the sheet slides in) [-]
   };
 
-  /// Hessian of the discrete energy: the periodic pentadiagonal P (entries (i, i), (i, i+1), (i, i+2), indices mod
-  /// n) plus rank_one_weight · b bᵀ with b = rank_one_vector (held only; weight 0 otherwise).
+  /// Hessian of the discrete energy E(w): the periodic pentadiagonal P (entries (i, i), (i, i+1), (i, i+2), indices
+  /// mod n) plus rank_one_weight · b bᵀ with b = ∇ε̄ (held only; weight 0 otherwise). Used by tests; the solver
+  /// factorises an equivalent banded matrix instead (see Grating1DModel::newton_step()).
   struct Grating1DHessian
   {
     std::vector<double> diagonal, first_off, second_off;
     double rank_one_weight = 0;
     std::vector<double> rank_one_vector;
+
+    double entry(const std::size_t i, const std::size_t j) const
+    {
+      const std::size_t n = diagonal.size(), lo = std::min(i, j), d = std::max(i, j) - lo;
+      double band = 0;
+      if (d == 0)
+        band = diagonal[i];
+      else if (d == 1 || d == n - 1)
+        band = first_off[d == 1 ? lo : std::max(i, j)];
+      else if (d == 2 || d == n - 2)
+        band = second_off[d == 2 ? lo : std::max(i, j)];
+      return band + rank_one_weight * rank_one_vector[i] * rank_one_vector[j];
+    }
 
     std::vector<double> multiply(const std::vector<double> &v) const
     {
@@ -121,9 +148,9 @@ namespace nappe::reference
 
   namespace internal
   {
-    // Symmetric matrix stored by its lower envelope: row i holds columns first[i]..i. Cholesky fills only inside the
-    // envelope, so the periodic pentadiagonal P (band 2 plus two full last rows for the wrap-around couplings)
-    // factorises in O(n), and first[i] = 0 everywhere is an ordinary dense matrix.
+    // Symmetric matrix stored by its lower envelope: row i holds columns first[i]..i. Cholesky fills only inside
+    // the envelope, so a banded matrix with a few full rows (the periodic wrap-around) factorises in O(n), and
+    // first[i] = 0 everywhere is an ordinary dense matrix.
     struct EnvelopeMatrix
     {
       std::vector<std::size_t> first, offset;
@@ -143,7 +170,7 @@ namespace nappe::reference
       double operator()(const std::size_t i, const std::size_t j) const { return values[offset[i] + j - first[i]]; }
     };
 
-    // In-place Cholesky A = L Lᵀ (row-oriented). Returns false, leaving garbage, if A is not positive definite.
+    // In-place Cholesky A = L Lᵀ, row by row. Returns false (leaving garbage) if A is not positive definite.
     inline bool cholesky(EnvelopeMatrix &a)
     {
       for (std::size_t i = 0; i < a.first.size(); ++i)
@@ -165,14 +192,13 @@ namespace nappe::reference
     // Solves L Lᵀ x = r in place with the factor from cholesky().
     inline void cholesky_solve(const EnvelopeMatrix &l, std::vector<double> &x)
     {
-      const std::size_t n = x.size();
-      for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t i = 0; i < x.size(); ++i)
         {
           for (std::size_t k = l.first[i]; k < i; ++k)
             x[i] -= l(i, k) * x[k];
           x[i] /= l(i, i);
         }
-      for (std::size_t i = n; i-- > 0;)
+      for (std::size_t i = x.size(); i-- > 0;)
         {
           x[i] /= l(i, i);
           for (std::size_t k = l.first[i]; k < i; ++k)
@@ -180,34 +206,14 @@ namespace nappe::reference
         }
     }
 
-    // P + σI in envelope form: the (i, i±1), (i, i±2) couplings, wrapped periodically, go below the diagonal.
-    inline EnvelopeMatrix periodic_band(const Grating1DHessian &h, const double shift)
-    {
-      const std::size_t n = h.diagonal.size();
-      std::vector<std::size_t> first(n);
-      for (std::size_t i = 0; i < n; ++i)
-        first[i] = (i + 2 >= n) ? 0 : (i >= 2 ? i - 2 : 0);
-      EnvelopeMatrix m(first);
-      for (std::size_t i = 0; i < n; ++i)
-        {
-          m(i, i) = h.diagonal[i] + shift;
-          const std::size_t j1 = (i + 1) % n, j2 = (i + 2) % n;
-          m(std::max(i, j1), std::min(i, j1)) = h.first_off[i];
-          m(std::max(i, j2), std::min(i, j2)) = h.second_off[i];
-        }
-      return m;
-    }
-
-    // The whole Hessian P + ρ b bᵀ as a dense matrix (O(n³) to factorise: only used when P alone is indefinite).
+    // The Hessian of E(w) as a dense matrix, for checking the banded solver (O(n³) to factorise).
     inline EnvelopeMatrix dense(const Grating1DHessian &h)
     {
       const std::size_t n = h.diagonal.size();
       EnvelopeMatrix m(std::vector<std::size_t>(n, 0));
-      const EnvelopeMatrix band = periodic_band(h, 0.0);
       for (std::size_t i = 0; i < n; ++i)
         for (std::size_t j = 0; j <= i; ++j)
-          m(i, j) = (j >= band.first[i] ? band(i, j) : 0.0) +
-                    h.rank_one_weight * h.rank_one_vector[i] * h.rank_one_vector[j];
+          m(i, j) = h.entry(i, j);
       return m;
     }
 
@@ -232,21 +238,21 @@ namespace nappe::reference
   struct NewtonSettings
   {
     /// Converged when an unshifted Newton step is at most this times h₀. A plain gradient norm would be limited by
-    /// round-off in the fourth differences (relative 1e-8 at n = 1024, growing as n⁴); the Newton step is the
-    /// gradient measured in the inverse-Hessian norm, which damps that high-frequency noise.
+    /// round-off in the fourth differences (relative ~1e-8 at n = 1024, growing as n⁴); the Newton step is the
+    /// gradient measured in the inverse-Hessian norm, which damps that high-frequency noise. Common practice, no
+    /// source; quadratic convergence makes the final error ~(1e-9)² h₀.
     double step_tolerance = 1e-9;
-    /// No iterate moves any node by more than this times h₀ (a trust region for far-from-converged starts).
+    /// No iterate moves any node by more than this times h₀ (a trust region for starts far from a minimum).
     double largest_step = 1.0;
     unsigned int max_iterations = 500;
   };
 
-  /// Outcome of minimise().
+  /// Outcome of Grating1DModel::minimise().
   struct MinimiseResult
   {
-    bool stable_minimum = false; ///< converged, and the unshifted Hessian's Cholesky factorisation succeeded
+    bool stable_minimum = false; ///< converged with an unshifted, positive definite Hessian (Cholesky succeeded)
     unsigned int iterations = 0;
-    unsigned int dense_factorisations = 0; ///< held only: P indefinite, so the whole Hessian was factorised densely
-    double residual = 0;                   ///< n·max|∂E/∂w_i| / (Γ/h₀) at the end [-]
+    double residual = 0; ///< n·max|∂E/∂w_i| / (Γ/h₀) at the end: the largest nodal force over the adhesion scale [-]
   };
 
   /// The discrete model of one period of the grating.
@@ -257,19 +263,20 @@ namespace nappe::reference
     {
       if (!(p.A >= 0 && p.k > 0 && p.D > 0 && p.Y > 0 && p.nu > -1 && p.nu < 0.5 && p.h0 > 0 && p.n >= 8))
         throw std::invalid_argument("Grating1DModel: expected A >= 0, k, D, Y, h0 > 0, -1 < nu < 0.5 and n >= 8");
-      dx = 2.0 * M_PI / p.k / p.n;
+      dx = 2.0 * internal::pi / p.k / p.n;
       y_hat = p.Y / (1.0 - p.nu * p.nu);
       for (unsigned int i = 0; i < p.n; ++i)
         {
-          const double x = i * dx, slope = -p.A * p.k * std::sin(p.k * x);
-          s.push_back(p.A * std::cos(p.k * x));
+          const double slope = -p.A * p.k * std::sin(p.k * i * dx);
+          s.push_back(p.A * std::cos(p.k * i * dx));
           gap_factor.push_back(p.normal_gap ? 1.0 / std::sqrt(1.0 + slope * slope) : 1.0);
         }
+      envelope = system_envelope();
     }
 
     const Grating1DParameters &parameters() const { return p; }
     double spacing() const { return dx; }
-    double position(const std::size_t i) const { return i * dx; }
+    double position(const std::size_t i) const { return double(i) * dx; }
     double substrate(const std::size_t i) const { return s[i]; }
     double gap(const std::vector<double> &w, const std::size_t i) const { return (w[i] - s[i]) * gap_factor[i]; }
 
@@ -303,14 +310,14 @@ namespace nappe::reference
       return e;
     }
 
-    /// ∂E/∂w_i of the discrete energy per area [J/m³ per node weight].
+    /// ∂E/∂w_i of the discrete energy per area (E in J/m², w_i in m).
     std::vector<double> gradient(const std::vector<double> &w, const double gamma) const
     {
       std::vector<double> kappa(p.n), g(p.n);
       for (std::size_t i = 0; i < p.n; ++i)
         kappa[i] = curvature(w, i);
-      // ∂ε̄/∂w_i = −κ_i/n; the tension Ŷε̄ multiplies it.
-      const double tension = p.held ? y_hat * energy(w, gamma).membrane_strain : 0.0;
+      // ∂ε̄/∂w_i = −κ_i/n, multiplied by the membrane tension Ŷε̄.
+      const double tension = y_hat * energy(w, gamma).membrane_strain;
       for (std::size_t i = 0; i < p.n; ++i)
         g[i] = (p.D * (kappa[next(i)] - 2.0 * kappa[i] + kappa[prev(i)]) / (dx * dx) +
                 vdw93(gap(w, i), gamma, p.h0).dphi * gap_factor[i] - tension * kappa[i]) /
@@ -318,10 +325,11 @@ namespace nappe::reference
       return g;
     }
 
+    /// ∂²E/∂w_i∂w_j of the discrete energy per area.
     Grating1DHessian hessian(const std::vector<double> &w, const double gamma) const
     {
       const double bend = p.D / (p.n * dx * dx * dx * dx);
-      const double tension = p.held ? y_hat * energy(w, gamma).membrane_strain / (p.n * dx * dx) : 0.0;
+      const double tension = y_hat * energy(w, gamma).membrane_strain / (p.n * dx * dx);
       Grating1DHessian h;
       for (std::size_t i = 0; i < p.n; ++i)
         {
@@ -353,27 +361,63 @@ namespace nappe::reference
       return conformed / p.n;
     }
 
+    /// Solves (H + σI) δ = −∇E for the Newton step δ at state w; returns false if H + σI is not positive definite.
+    ///
+    /// Free to slide, H = P is periodic pentadiagonal and is factorised directly. Held, H = P + Ŷ b bᵀ is dense;
+    /// instead the in-plane displacements are put back as unknowns: with strains e_i = (u_{i+1} − u_i)/Δx + ½ t_i²,
+    /// t_i = (w_{i+1} − w_i)/Δx, the energy F(u, w) = (1/n) Σ [½Dκ_i² + φ(g_i) + ½Ŷ e_i²] has E(w) = min_u F
+    /// (the minimiser over periodic u makes every e_i = ε̄), and its Hessian K at that minimiser is banded (with
+    /// u₀ = 0 fixing the rigid translation, the u-block is positive definite). By the Schur complement,
+    /// H = K_ww − K_wu K_uu⁻¹ K_uw, so K + σ(w-block) is positive definite iff H + σI is, and the w-part of
+    /// K⁻¹(0, −∇E) is the Newton step. K at the minimiser needs only e_i = ε̄ and t_i, never u itself.
+    bool newton_step(const std::vector<double> &w, const double gamma, const double shift,
+                     std::vector<double> &step) const
+    {
+      internal::EnvelopeMatrix k(envelope);
+      assemble_system(w, gamma, shift, [&k](std::size_t r, std::size_t c, double v) {
+        k(std::max(r, c), std::min(r, c)) += v;
+      });
+      if (!internal::cholesky(k))
+        return false;
+      const std::vector<double> g = gradient(w, gamma);
+      std::vector<double> x(n_unknowns(), 0.0);
+      for (std::size_t i = 0; i < p.n; ++i)
+        x[w_index(i)] = -g[i];
+      internal::cholesky_solve(k, x);
+      step.resize(p.n);
+      for (std::size_t i = 0; i < p.n; ++i)
+        step[i] = x[w_index(i)];
+      return true;
+    }
+
     /// Minimises the energy at Γ [J/m²] from w (overwritten with the last iterate) by Newton's method with a
-    /// backtracking line search; an indefinite Hessian is shifted by σI to obtain a descent direction.
+    /// backtracking line search; where the Hessian is not positive definite it is shifted by σI (σ from a small
+    /// fraction of the adhesion stiffness per node, 27Γ/(h₀² n), growing tenfold) to obtain a descent direction.
     MinimiseResult minimise(std::vector<double> &w, const double gamma, const NewtonSettings &settings = {}) const
     {
       MinimiseResult result;
+      std::vector<double> step;
+      const double first_shift = 1e-6 * 27.0 * gamma / (p.h0 * p.h0 * p.n);
       for (result.iterations = 1; result.iterations <= settings.max_iterations; ++result.iterations)
         {
-          const std::vector<double> g = gradient(w, gamma);
-          bool shifted = false;
-          const std::vector<double> step = newton_step(hessian(w, gamma), g, gamma, shifted, result);
-          if (!shifted && internal::max_abs(step) <= settings.step_tolerance * p.h0)
+          double shift = 0;
+          while (!newton_step(w, gamma, shift, step))
+            {
+              shift = (shift == 0) ? first_shift : 10.0 * shift;
+              if (!std::isfinite(shift))
+                throw std::runtime_error("Grating1DModel: no shift makes the Hessian positive definite");
+            }
+          if (shift == 0 && internal::max_abs(step) <= settings.step_tolerance * p.h0)
             {
               for (std::size_t i = 0; i < p.n; ++i)
                 w[i] += step[i];
               result.stable_minimum = true;
-              result.residual = p.n * internal::max_abs(gradient(w, gamma)) * p.h0 / gamma;
-              return result;
+              break;
             }
-          if (!line_search(w, gamma, g, step, settings.largest_step * p.h0))
+          if (!line_search(w, gamma, step, settings.largest_step * p.h0))
             break;
         }
+      result.iterations = std::min(result.iterations, settings.max_iterations);
       result.residual = p.n * internal::max_abs(gradient(w, gamma)) * p.h0 / gamma;
       return result;
     }
@@ -386,57 +430,66 @@ namespace nappe::reference
       return (w[next(i)] - 2.0 * w[i] + w[prev(i)]) / (dx * dx);
     }
 
-    // Solves H δ = −g. P is factorised in O(n); the rank-one part is added by Sherman–Morrison, which is exact and
-    // stable when P (hence P + ρbbᵀ, ρ > 0) is positive definite. If P is indefinite the whole held Hessian may
-    // still be positive definite (the rank-one part stiffens the mode that changes the mean strain), so it is then
-    // factorised densely before falling back to a shift σ that makes P + σI positive definite.
-    std::vector<double> newton_step(const Grating1DHessian &h, const std::vector<double> &g, const double gamma,
-                                    bool &shifted, MinimiseResult &result) const
+    // Unknowns of the Newton system: w only, or, held, (w₀, u₁, w₁, u₂, w₂, …) interleaved to keep K banded.
+    std::size_t n_unknowns() const { return p.held ? 2 * p.n - 1 : p.n; }
+    std::size_t w_index(const std::size_t i) const { return p.held ? 2 * i : i; }
+    static constexpr std::size_t pinned = std::numeric_limits<std::size_t>::max();
+    std::size_t u_index(const std::size_t i) const { return i == 0 ? pinned : 2 * i - 1; }
+
+    // Adds weight · a aᵀ (one triangle) for a sparse vector a of (index, value) pairs with distinct indices (true
+    // for n >= 8) through add(row, column, value); pinned unknowns are skipped.
+    template <class Add>
+    static void add_outer(Add &add, const std::initializer_list<std::pair<std::size_t, double>> list,
+                          const double weight)
     {
-      std::vector<double> rhs(g.size());
-      for (std::size_t i = 0; i < g.size(); ++i)
-        rhs[i] = -g[i];
-      internal::EnvelopeMatrix band = internal::periodic_band(h, 0.0);
-      shifted = !internal::cholesky(band);
-      if (shifted && h.rank_one_weight > 0)
+      const std::pair<std::size_t, double> *a = list.begin();
+      for (std::size_t r = 0; r < list.size(); ++r)
+        for (std::size_t c = 0; c <= r; ++c)
+          if (a[r].first != pinned && a[c].first != pinned)
+            add(a[r].first, a[c].first, weight * a[r].second * a[c].second);
+    }
+
+    // Visits the entries of the matrix K of newton_step() (summed where they repeat): bending, adhesion and the
+    // shift σ on w, and, held, the stretching of every interval, ½Ŷ e_i² with Hessian Ŷ(∇e_i ∇e_iᵀ + e_i ∇²e_i)
+    // at e_i = ε̄.
+    template <class Add>
+    void assemble_system(const std::vector<double> &w, const double gamma, const double shift, Add &&add) const
+    {
+      const double eps = energy(w, gamma).membrane_strain, c_bend = p.D / (p.n * dx * dx * dx * dx),
+                   c_stretch = y_hat / (p.n * dx * dx);
+      for (std::size_t i = 0; i < p.n; ++i)
         {
-          ++result.dense_factorisations;
-          internal::EnvelopeMatrix full = internal::dense(h);
-          if (internal::cholesky(full))
+          const std::size_t j = next(i);
+          add_outer(add, {{w_index(prev(i)), 1.0}, {w_index(i), -2.0}, {w_index(j), 1.0}}, c_bend);
+          const double c = gap_factor[i];
+          add(w_index(i), w_index(i), vdw93(gap(w, i), gamma, p.h0).d2phi * c * c / p.n + shift);
+          if (p.held)
             {
-              shifted = false;
-              internal::cholesky_solve(full, rhs);
-              return rhs;
+              const double t = (w[j] - w[i]) / dx;
+              add_outer(add, {{u_index(i), -1.0}, {u_index(j), 1.0}, {w_index(i), -t}, {w_index(j), t}}, c_stretch);
+              add_outer(add, {{w_index(i), 1.0}, {w_index(j), -1.0}}, c_stretch * eps);
             }
         }
-      // The shift starts at a small fraction of the adhesion stiffness per node, 27Γ/h₀²/n, and grows tenfold.
-      for (double sigma = 1e-6 * 27.0 * gamma / (p.h0 * p.h0 * p.n); shifted; sigma *= 10.0)
-        {
-          band = internal::periodic_band(h, sigma);
-          if (internal::cholesky(band))
-            break;
-          if (!std::isfinite(sigma))
-            throw std::runtime_error("Grating1DModel: no shift makes the Hessian positive definite");
-        }
-      internal::cholesky_solve(band, rhs);
-      if (h.rank_one_weight > 0)
-        {
-          std::vector<double> u = h.rank_one_vector;
-          internal::cholesky_solve(band, u);
-          const double factor = h.rank_one_weight * internal::dot(h.rank_one_vector, rhs) /
-                                (1.0 + h.rank_one_weight * internal::dot(h.rank_one_vector, u));
-          for (std::size_t i = 0; i < rhs.size(); ++i)
-            rhs[i] -= factor * u[i];
-        }
-      return rhs;
+    }
+
+    // The envelope of K (first column of each row), from one pass over its entries with zero values.
+    std::vector<std::size_t> system_envelope() const
+    {
+      std::vector<std::size_t> first(n_unknowns());
+      for (std::size_t i = 0; i < first.size(); ++i)
+        first[i] = i;
+      assemble_system(std::vector<double>(p.n, p.h0), 1.0, 0.0, [&](std::size_t r, std::size_t c, double) {
+        first[std::max(r, c)] = std::min(first[std::max(r, c)], std::min(r, c));
+      });
+      return first;
     }
 
     // Backtracking on the energy with the Armijo condition; near convergence the predicted decrease falls below
     // the round-off of E, so a step that does not raise E by more than that round-off is accepted.
-    bool line_search(std::vector<double> &w, const double gamma, const std::vector<double> &g,
-                     const std::vector<double> &step, const double largest_step) const
+    bool line_search(std::vector<double> &w, const double gamma, const std::vector<double> &step,
+                     const double largest_step) const
     {
-      const double e0 = energy(w, gamma).total, slope = internal::dot(g, step);
+      const double e0 = energy(w, gamma).total, slope = internal::dot(gradient(w, gamma), step);
       if (!(slope < 0))
         return false;
       const double roundoff = 1e-14 * (std::abs(e0) + gamma);
@@ -457,8 +510,10 @@ namespace nappe::reference
 
     Grating1DParameters p;
     double dx, y_hat;
-    std::vector<double> s, gap_factor; // substrate height and dg/dw at the nodes
+    std::vector<double> s, gap_factor; // substrate height and ∂g/∂w at the nodes
+    std::vector<std::size_t> envelope;  // of the Newton matrix K
   };
+
   /// One accepted state of a path, per projected area.
   struct PathPoint
   {
@@ -486,8 +541,11 @@ namespace nappe::reference
   struct Grating1DThresholds
   {
     Threshold hold, snap, eq;
+    /// The first jump of each path: where the conformed branch ends (downward) and where the least-conformed branch
+    /// ends (upward). They coincide with hold and snap only when the target is crossed at a jump.
+    Threshold conformed_fold, laid_down_fold;
     std::vector<PathPoint> down, up; ///< in path order (Γ decreasing, increasing)
-    unsigned int minimisations = 0, newton_iterations = 0, dense_factorisations = 0;
+    unsigned int minimisations = 0, newton_iterations = 0;
   };
 
   /// Controls of path following.
@@ -523,14 +581,14 @@ namespace nappe::reference
     {
       std::vector<PathPoint> points;
       Threshold crossing; // first crossing of the target in the direction of the path's purpose
-      unsigned int minimisations = 0, newton_iterations = 0, dense_factorisations = 0;
+      Threshold fold;     // first jump
+      unsigned int minimisations = 0, newton_iterations = 0;
     };
 
     inline void count(Path &path, const MinimiseResult &r)
     {
       ++path.minimisations;
       path.newton_iterations += r.iterations;
-      path.dense_factorisations += r.dense_factorisations;
     }
 
     inline double max_difference(const std::vector<double> &a, const std::vector<double> &b)
@@ -584,8 +642,11 @@ namespace nappe::reference
           point.newton_iterations = r.iterations;
           const bool wanted = down ? (last.fraction >= settings.target && point.fraction < settings.target)
                                    : (last.fraction < settings.target && point.fraction >= settings.target);
+          const Threshold bracket{true, point.after_jump, std::min(gamma, last.gamma), std::max(gamma, last.gamma)};
           if (wanted && !path.crossing.found)
-            path.crossing = {true, point.after_jump, std::min(gamma, last.gamma), std::max(gamma, last.gamma)};
+            path.crossing = bracket;
+          if (point.after_jump && !path.fold.found)
+            path.fold = bracket;
           path.points.push_back(point);
           w = std::move(trial);
           step = std::min(1.5 * step, settings.largest_step);
@@ -593,13 +654,16 @@ namespace nappe::reference
       return path;
     }
 
-    // The points of a path before its first jump, sorted by increasing Γ.
-    inline std::vector<PathPoint> branch(const std::vector<PathPoint> &points)
+    // The points of a path before its first jump, sorted by increasing Γ. For the downward path this is the
+    // conformed branch "before its first jump below the target": a jump that stays at or above the target would have
+    // to be flagged by |Δw| alone (|Δf| ≤ 1 − target < 0.02), which has not been seen; cutting at any jump keeps
+    // the Hermite interpolation from spanning one.
+    inline std::vector<PathPoint> branch(const std::vector<PathPoint> &points, const double target, const bool conformed)
     {
       std::vector<PathPoint> b;
       for (const PathPoint &point : points)
         {
-          if (point.after_jump)
+          if (point.after_jump || (point.fraction >= target) != conformed)
             break;
           b.push_back(point);
         }
@@ -621,16 +685,16 @@ namespace nappe::reference
     }
 
     // The Maxwell point: root of E_conformed − E_least on the Γ interval where both branches exist, bisected to
-    // hi − lo ≤ rel_tol·lo. Not found if either path is continuous (no bistability) or the difference keeps its sign.
+    // hi − lo ≤ rel_tol·lo. The conformed branch is the downward path before its first jump or target crossing
+    // (fraction ≥ target), the least-conformed branch the upward path before its first jump or target crossing
+    // (fraction < target); so restricted, Γ_hold ≤ Γ_eq ≤ Γ_snap whenever Γ_eq is found. Not found if the branches
+    // do not coexist or the difference keeps its sign.
     inline Threshold maxwell_point(const std::vector<PathPoint> &down, const std::vector<PathPoint> &up,
-                                   const double rel_tol)
+                                   const double target, const double rel_tol)
     {
-      const auto jumps = [](const std::vector<PathPoint> &points) {
-        return std::any_of(points.begin(), points.end(), [](const PathPoint &x) { return x.after_jump; });
-      };
       Threshold eq;
-      const std::vector<PathPoint> conformed = branch(down), least = branch(up);
-      if (!jumps(down) || !jumps(up) || conformed.size() < 2 || least.size() < 2)
+      const std::vector<PathPoint> conformed = branch(down, target, true), least = branch(up, target, false);
+      if (conformed.size() < 2 || least.size() < 2)
         return eq;
       double lo = std::max(conformed.front().gamma, least.front().gamma);
       double hi = std::min(conformed.back().gamma, least.back().gamma);
@@ -656,27 +720,36 @@ namespace nappe::reference
   /// Γ_lo [J/m²] and locates Γ_hold, Γ_snap and Γ_eq as defined at the top of this file. Throws std::runtime_error if
   /// Newton finds no stable minimum where one is required.
   inline Grating1DThresholds grating_1d_thresholds(const Grating1DParameters &parameters, const double gamma_lo,
-                                                   const double gamma_hi, const double target = 0.99,
-                                                   const double rel_tol = 1e-3)
+                                                   const double gamma_hi, const PathSettings &settings)
   {
-    if (!(gamma_lo > 0 && gamma_hi > gamma_lo && target > 0 && target <= 1 && rel_tol > 0))
+    if (!(gamma_lo > 0 && gamma_hi > gamma_lo && settings.target > 0 && settings.target <= 1 &&
+          settings.rel_tol > 0 && settings.initial_step > 0 && settings.largest_step >= settings.initial_step))
       throw std::invalid_argument("grating_1d_thresholds: expected 0 < gamma_lo < gamma_hi, 0 < target <= 1, "
-                                  "rel_tol > 0");
+                                  "rel_tol > 0 and 0 < initial_step <= largest_step");
     const Grating1DModel model(parameters);
-    PathSettings settings;
-    settings.target = target;
-    settings.rel_tol = rel_tol;
     const internal::Path down = internal::follow(model, model.grown_conformal_state(), gamma_hi, gamma_lo, settings);
     const internal::Path up = internal::follow(model, model.flat_state(), gamma_lo, gamma_hi, settings);
     Grating1DThresholds result;
     result.hold = down.crossing;
     result.snap = up.crossing;
-    result.eq = internal::maxwell_point(down.points, up.points, rel_tol);
+    result.conformed_fold = down.fold;
+    result.laid_down_fold = up.fold;
+    result.eq = internal::maxwell_point(down.points, up.points, settings.target, settings.rel_tol);
     result.down = down.points;
     result.up = up.points;
     result.minimisations = down.minimisations + up.minimisations;
     result.newton_iterations = down.newton_iterations + up.newton_iterations;
-    result.dense_factorisations = down.dense_factorisations + up.dense_factorisations;
     return result;
+  }
+
+  /// The same with the default step control, the target conformed fraction and the relative tolerance.
+  inline Grating1DThresholds grating_1d_thresholds(const Grating1DParameters &parameters, const double gamma_lo,
+                                                   const double gamma_hi, const double target = 0.99,
+                                                   const double rel_tol = 1e-3)
+  {
+    PathSettings settings;
+    settings.target = target;
+    settings.rel_tol = rel_tol;
+    return grating_1d_thresholds(parameters, gamma_lo, gamma_hi, settings);
   }
 } // namespace nappe::reference

@@ -48,12 +48,15 @@ namespace nappe
 
   /**
    * Γ_eq from the two paths: the root of E_conformed(Γ) − E_least(Γ) on the Γ interval where both
-   * branches were followed (each branch up to its first jump). Each branch's energy per area is
-   * interpolated by cubic Hermite polynomials with the exact slope dE/dΓ = E_adhesion/Γ (the
-   * energy is stationary in the state, so only the explicit Γ dependence remains), and the root
-   * is bisected to @p relative_tolerance in ln Γ.
+   * branches were followed. The conformed branch is the lowering path up to its first jump or
+   * target crossing (fraction ≥ @p target); the least-conformed branch is the raising path up to
+   * its first jump or target crossing (fraction < target). Restricted so, Γ_hold ≤ Γ_eq ≤ Γ_snap
+   * whenever Γ_eq is found. Each branch's energy per area is interpolated by cubic Hermite
+   * polynomials with the exact slope dE/dΓ = E_adhesion/Γ (the energy is stationary in the state,
+   * so only its explicit Γ dependence remains), and the root is bisected to @p relative_tolerance
+   * in ln Γ.
    */
-  AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising,
+  AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising, double target,
                                            double relative_tolerance);
 
   /// Follows both paths over the settings' range and locates the three thresholds.

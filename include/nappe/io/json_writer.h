@@ -28,6 +28,8 @@ namespace nappe
     void value(const std::string &key, long long v);
     void value(const std::string &key, unsigned int v) { value(key, static_cast<long long>(v)); }
     void value(const std::string &key, int v) { value(key, static_cast<long long>(v)); }
+    /// null: a value that does not exist (e.g. an unknown material constant)
+    void null(const std::string &key);
     /// {"value": v, "unit": unit}
     void quantity(const std::string &key, double v, const std::string &unit);
 

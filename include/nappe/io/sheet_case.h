@@ -32,6 +32,8 @@ namespace nappe
     std::string          output_directory = ".";
     std::string          output_name      = "sheet";
     bool                 write_fields     = true;
+    /// false: compute and measure only, write no file (a sweep writes its own records).
+    bool                 write_results    = true;
     /// The substrate (topography + traction–separation law); null for a free sheet.
     std::shared_ptr<const AdhesionPotential> adhesion;
     Protocol protocol = Protocol::laid_down;

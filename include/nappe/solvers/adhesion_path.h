@@ -21,7 +21,7 @@ namespace nappe
     /// Jumps and crossings of the target are located to a bracket [Γ₁, Γ₂] with ln(Γ₂/Γ₁) ≤ this [-].
     double relative_tolerance = 2e-3;
     double initial_step       = 0.05; ///< first step in ln Γ [-]
-    double largest_step       = 0.25; ///< largest step in ln Γ [-]
+    double largest_step       = 0.1;  ///< largest step in ln Γ [-]
     /// A step stays on the branch only if the conformed fraction changes by at most this [-] ...
     double largest_fraction_change = 0.02;
     /// ... and the deflection by at most this times the equilibrium gap h₀ of the law [-].
