@@ -203,8 +203,8 @@ namespace nappe
   void check_adhesion_path_settings(const AdhesionPathSettings &s)
   {
     AssertThrow(s.lowest_work_of_adhesion > 0 && s.highest_work_of_adhesion > s.lowest_work_of_adhesion,
-                dealii::ExcMessage("Adhesion limits: expected 0 < Lowest work of adhesion < Highest work of "
-                                   "adhesion, found " + std::to_string(s.lowest_work_of_adhesion) + " and " +
+                dealii::ExcMessage("Adhesion limits/Lowest work of adhesion, Highest work of adhesion: "
+                                   "expected 0 < lowest < highest, found " + std::to_string(s.lowest_work_of_adhesion) + " and " +
                                    std::to_string(s.highest_work_of_adhesion) + " J/m^2."));
     AssertThrow(s.target_fraction > 0 && s.target_fraction <= 1,
                 dealii::ExcMessage("Adhesion limits/Target conformed fraction: expected a number in (0, 1]."));
