@@ -1,0 +1,58 @@
+// Speed of a threshold search (both Γ paths, Γ_hold, Γ_eq, Γ_snap) on a held graphene grating cell
+// (our own scenario: period 40 nm, amplitude 2 nm, Q2) at 32, 64 and 128 cells per period. Target
+// (common practice, no source): one threshold search of a 1D-like cell in under a minute on one core,
+// so that a 16-point design sweep runs in a coffee break.
+#include <deal.II/base/mpi.h>
+
+#include <nappe/analysis/adhesion_limits.h>
+#include <nappe/geometry/sinusoidal_topography.h>
+#include <nappe/io/sheet_case.h>
+#include <nappe/physics/material_catalogue.h>
+#include <nappe/physics/vdw_93_law.h>
+
+#include <benchmark/benchmark.h>
+
+namespace
+{
+  nappe::SheetCase held_grating(unsigned int refinements)
+  {
+    nappe::SheetCase c;
+    c.model.material            = nappe::MaterialCatalogue().material("graphene");
+    c.domain.length_x           = 40e-9;
+    c.domain.length_y           = 2.5e-9;
+    c.domain.coarse_cells_x     = 16;
+    c.domain.global_refinements = refinements;
+    c.domain.periodic           = true;
+    c.adhesion = std::make_shared<nappe::AdhesionPotential>(std::make_shared<nappe::SinusoidalGrating>(2e-9, 40e-9),
+                                                            std::make_shared<nappe::Vdw93Law>(0.45, 0.5e-9),
+                                                            nappe::GapMeasure::normal);
+    c.model.substrate                 = c.adhesion;
+    c.stepping.load_steps             = 1;
+    c.limits.lowest_work_of_adhesion  = 0.01;
+    c.limits.highest_work_of_adhesion = 3.0;
+    return c;
+  }
+
+  void threshold_search(benchmark::State &state)
+  {
+    const nappe::SheetCase c = held_grating(state.range(0));
+    unsigned int           states = 0;
+    for (auto _ : state)
+      {
+        const nappe::AdhesionLimits limits = nappe::find_adhesion_limits(c, c.limits, MPI_COMM_WORLD);
+        states = limits.lowering.solves + limits.raising.solves;
+      }
+    state.counters["minimisations"] = states;
+  }
+} // namespace
+
+BENCHMARK(threshold_search)->DenseRange(1, 3)->Unit(benchmark::kSecond)->Iterations(1);
+
+int main(int argc, char **argv)
+{
+  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
+  benchmark::Initialize(&argc, argv);
+  benchmark::RunSpecifiedBenchmarks();
+  benchmark::Shutdown();
+  return 0;
+}
