@@ -103,18 +103,7 @@ int main(int argc, char **argv)
       const bool validate_only = args[0] == "--validate";
       if (validate_only)
         args.erase(args.begin());
-      if (args.empty())
-        throw std::runtime_error(std::string("missing case file\n") + usage);
-      if (args[0] == "--demo")
-        prm.parse_input_from_string(demo_case, "built-in demo case");
-      else
-        prm.parse_input(args[0]);
-      for (std::size_t i = 1; i < args.size(); ++i)
-        {
-          if (args[i] != "--set" || i + 1 == args.size())
-            throw std::runtime_error("unexpected argument '" + args[i] + "'\n" + usage);
-          nappe::apply_override(prm, args[++i]);
-        }
+      nappe::read_case_arguments(prm, args, demo_case, usage);
       const nappe::SheetCase sheet_case = nappe::parse_sheet_case(prm);
       if (validate_only)
         {

@@ -35,6 +35,22 @@ namespace nappe
       prm.leave_subsection();
   }
 
+  void read_case_arguments(dealii::ParameterHandler &prm, const std::vector<std::string> &args,
+                           const std::string &demo_case, const std::string &usage)
+  {
+    AssertThrow(!args.empty(), dealii::ExcMessage("missing case file\n" + usage));
+    if (args[0] == "--demo")
+      prm.parse_input_from_string(demo_case, "built-in demo case");
+    else
+      prm.parse_input(args[0]);
+    for (std::size_t i = 1; i < args.size(); ++i)
+      {
+        AssertThrow(args[i] == "--set" && i + 1 < args.size(),
+                    dealii::ExcMessage("unexpected argument '" + args[i] + "'\n" + usage));
+        apply_override(prm, args[++i]);
+      }
+  }
+
   std::string user_message(const std::exception &e)
   {
     if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))

@@ -4,6 +4,7 @@
 
 #include <exception>
 #include <string>
+#include <vector>
 
 namespace nappe
 {
@@ -12,6 +13,14 @@ namespace nappe
    * naming the assignment if the entry does not exist or the value does not match its pattern.
    */
   void apply_override(dealii::ParameterHandler &prm, const std::string &assignment);
+
+  /**
+   * Reads a driver's case arguments into a handler with declared entries: "CASE.prm" or "--demo"
+   * (then @p demo_case is parsed), followed by "--set Section/Entry=value" pairs. Throws with
+   * @p usage on anything else, and naming the file, line or override on bad input.
+   */
+  void read_case_arguments(dealii::ParameterHandler &prm, const std::vector<std::string> &args,
+                           const std::string &demo_case, const std::string &usage);
 
   /// The message of an exception for a user: deal.II's text without source location and stack trace.
   std::string user_message(const std::exception &e);
