@@ -25,7 +25,8 @@ namespace nappe
     {
     public:
       PathFollower(const SheetCase &c, const AdhesionPathSettings &s, MPI_Comm comm, std::ostream *log)
-        : case_(with_scaled_substrate(c))
+        : scaled_(scaled_substrate(c))
+        , case_(with_substrate(c, scaled_))
         , settings_(s)
         , system_(case_.model, case_.domain, comm)
         , minimizer_(system_, case_.newton, nullptr)
@@ -37,20 +38,22 @@ namespace nappe
       AdhesionPath run(Protocol start);
 
     private:
-      static SheetCase with_scaled_substrate(const SheetCase &c)
+      static std::shared_ptr<ScaledPotential> scaled_substrate(const SheetCase &c)
       {
         AssertThrow(c.adhesion, dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
-        SheetCase scaled      = c;
-        scaled.model.substrate = std::make_shared<ScaledPotential>(c.adhesion);
+        return std::make_shared<ScaledPotential>(c.adhesion);
+      }
+
+      /// The case with its adhesion replaced by the scaled one (the system shares the pointer).
+      static SheetCase with_substrate(const SheetCase &c, std::shared_ptr<const SurfacePotential> substrate)
+      {
+        SheetCase scaled       = c;
+        scaled.model.substrate = std::move(substrate);
         return scaled;
       }
 
       double case_gamma() const { return case_.adhesion->law().work_of_adhesion(); }
-      void   set_gamma(double gamma)
-      {
-        std::const_pointer_cast<ScaledPotential>(std::static_pointer_cast<const ScaledPotential>(case_.model.substrate))
-          ->set_factor(gamma / case_gamma());
-      }
+      void   set_gamma(double gamma) { scaled_->set_factor(gamma / case_gamma()); }
       AdhesionPathPoint measure(const Vector &owned, double gamma, unsigned int iterations) const;
       double            max_deflection_change(const Vector &a, const Vector &b) const;
       double            next_gamma(double gamma, double step, bool lowering) const;
@@ -60,6 +63,7 @@ namespace nappe
           *log_ << s << std::flush;
       }
 
+      std::shared_ptr<ScaledPotential> scaled_; ///< Γ/Γ_case; shared with the system's model
       SheetCase            case_;
       AdhesionPathSettings settings_;
       SheetSystem          system_;
