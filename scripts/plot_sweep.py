@@ -73,12 +73,19 @@ class Axis:
     name: str
     unit: str
     values: list  # sorted ascending
+    labels: tuple = ()  # a categorical axis (e.g. materials): names of the values 1, 2, …
 
     def label(self):
+        if self.labels:
+            return self.name
         return f"{self.name} [{self.unit}]" if self.unit else f"{self.name} (dimensionless)"
 
+    def text(self, value):
+        """A value as tick text: its name on a categorical axis, else the number."""
+        return self.labels[self.values.index(value)] if self.labels else f"{value:g}"
+
     def describe(self, value):
-        return f"{self.name} = {value:g} {self.unit}".rstrip()
+        return f"{self.name} = {self.text(value)} {'' if self.labels else self.unit}".rstrip()
 
 
 @dataclass
@@ -155,7 +162,12 @@ def parse_axis(raw, i, path):
     numbers = sorted(json_number(v, f"each of {where}.values", path) for v in values)
     if len(set(numbers)) != len(numbers):
         raise InputError(f"{path}: {where}.values has repeated values: {values!r}")
-    return Axis(*strings, numbers)
+    labels = raw.get("labels", [])
+    if not isinstance(labels, list) or (labels and (len(labels) != len(numbers) or
+                                                    numbers != list(range(1, len(numbers) + 1)) or
+                                                    not all(isinstance(t, str) for t in labels))):
+        raise InputError(f"{path}: {where}.labels must name the values 1..n of a categorical axis, found {labels!r}")
+    return Axis(*strings, numbers, tuple(labels))
 
 
 def load_meta(directory):
@@ -362,7 +374,7 @@ def set_axis(ax, axis, which):
     if is_log(axis):
         getattr(ax, f"set_{which}scale")("log")
     if len(axis.values) <= 10:
-        getattr(ax, f"set_{which}ticks")(axis.values, [f"{v:g}" for v in axis.values])
+        getattr(ax, f"set_{which}ticks")(axis.values, [axis.text(v) for v in axis.values])
         getattr(ax, f"{which}axis").set_minor_locator(plt.NullLocator())
 
 

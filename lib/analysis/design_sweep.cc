@@ -34,7 +34,8 @@ namespace nappe
       prm.declare_entry("Unit", "", dealii::Patterns::Anything(),
                         "Unit of the values: the unit the case file documents for the entries (e.g. nm, J/m^2).");
       prm.declare_entry("Values", "", dealii::Patterns::Anything(),
-                        "Comma-separated values, or 'from A to B in N steps' (evenly spaced, N >= 2) [Unit].");
+                        "Comma-separated values, or 'from A to B in N steps' (evenly spaced, N >= 2) [Unit]; or "
+                        "comma-separated names (e.g. materials of the catalogue): a categorical axis.");
       prm.leave_subsection();
     }
 
@@ -57,17 +58,17 @@ namespace nappe
       std::vector<double> v;
       for (const auto &item : dealii::Utilities::split_string_list(text, ','))
         {
+          std::size_t used = 0;
           try
             {
-              std::size_t used = 0;
               v.push_back(std::stod(item, &used));
-              AssertThrow(used == item.size(), ExcMessage(""));
             }
           catch (...)
             {
-              AssertThrow(false, ExcMessage(where + ": '" + item + "' is not a number (expected a comma-separated "
-                                                                   "list of numbers or 'from A to B in N steps')."));
+              used = 0;
             }
+          if (used != item.size())
+            return {}; // not all numbers: a categorical axis
         }
       AssertThrow(!v.empty(), ExcMessage(where + ": expected at least one value."));
       return v;
@@ -81,7 +82,15 @@ namespace nappe
       axis.name    = prm.get("Name");
       axis.unit    = prm.get("Unit");
       if (!axis.entries.empty())
-        axis.values = parse_values(prm.get("Values"), "Sweep/" + name + "/Values");
+        {
+          axis.values = parse_values(prm.get("Values"), "Sweep/" + name + "/Values");
+          if (axis.values.empty())
+            {
+              axis.labels = dealii::Utilities::split_string_list(prm.get("Values"), ',');
+              for (std::size_t i = 0; i < axis.labels.size(); ++i)
+                axis.values.push_back(i + 1);
+            }
+        }
       prm.leave_subsection();
       if (axis.name.empty() && !axis.entries.empty())
         axis.name = axis.entries.front();
@@ -110,10 +119,10 @@ namespace nappe
       prm.parse_input(spec.case_file);
       for (const auto &o : spec.overrides)
         apply_override(prm, o);
-      const auto values = spec.values(point);
+      const auto indices = spec.indices(point);
       for (std::size_t a = 0; a < spec.axes.size(); ++a)
         for (const auto &entry : spec.axes[a].entries)
-          apply_override(prm, entry + "=" + number(values[a]));
+          apply_override(prm, entry + "=" + spec.axes[a].text(indices[a]));
       SheetCase c     = parse_sheet_case(prm);
       c.write_results = false;
       return c;
@@ -252,6 +261,13 @@ namespace nappe
             for (const double v : a.values)
               json.value("", v);
             json.end_array();
+            if (!a.labels.empty())
+              {
+                json.begin_array("labels");
+                for (const auto &l : a.labels)
+                  json.value("", l);
+                json.end_array();
+              }
             json.end_object();
           }
         json.end_array();
@@ -292,15 +308,26 @@ namespace nappe
     return n;
   }
 
+  std::string SweepAxis::text(std::size_t i) const { return labels.empty() ? number(values[i]) : labels[i]; }
+
+  std::vector<std::size_t> SweepSpec::indices(unsigned int point) const
+  {
+    std::vector<std::size_t> v;
+    unsigned int             index = point - 1;
+    for (const auto &a : axes)
+      {
+        v.push_back(index % a.values.size());
+        index /= a.values.size();
+      }
+    return v;
+  }
+
   std::vector<double> SweepSpec::values(unsigned int point) const
   {
     std::vector<double> v;
-    unsigned int        index = point - 1;
-    for (const auto &a : axes)
-      {
-        v.push_back(a.values[index % a.values.size()]);
-        index /= a.values.size();
-      }
+    const auto          idx = indices(point);
+    for (std::size_t a = 0; a < axes.size(); ++a)
+      v.push_back(axes[a].values[idx[a]]);
     return v;
   }
 

@@ -17,6 +17,11 @@ namespace nappe
     std::string              name;    ///< for tables and plots
     std::string              unit;    ///< the entries' unit, as the case file documents it
     std::vector<double>      values;
+    /// A categorical axis (text values such as material names): the names; values are then 1, 2, ….
+    std::vector<std::string> labels;
+
+    /// The text an entry is set to for the i-th value.
+    std::string text(std::size_t i) const;
   };
 
   /**
@@ -35,8 +40,10 @@ namespace nappe
     bool                     thresholds = false;
 
     unsigned int        n_points() const;
-    /// The axis values of point @p point (1-based).
+    /// The axis values of point @p point (1-based); on a categorical axis the value's number 1, 2, ….
     std::vector<double> values(unsigned int point) const;
+    /// The positions of point @p point (1-based) on the axes (0-based).
+    std::vector<std::size_t> indices(unsigned int point) const;
   };
 
   /// Declares the subsection "Sweep" of a sweep file (entries documented, with units).
