@@ -388,9 +388,13 @@ namespace nappe
     const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(comm);
     const unsigned int size = dealii::Utilities::MPI::n_mpi_processes(comm);
     const fs::path     dir  = fs::path(spec.output_directory) / "points";
-    if (rank == 0)
-      fs::create_directories(dir);
-    MPI_Barrier(comm);
+    // Every rank creates it (idempotent) and all agree on failure, so that no rank waits for one that threw.
+    std::error_code error;
+    fs::create_directories(dir, error);
+    const bool created = fs::is_directory(dir);
+    AssertThrow(dealii::Utilities::MPI::min(created ? 1 : 0, comm) == 1,
+                ExcMessage("Sweep/Output directory: cannot create '" + dir.string() + "'" +
+                           (error ? ": " + error.message() : std::string()) + "."));
 
     SweepProgress progress;
     progress.total = spec.n_points();
