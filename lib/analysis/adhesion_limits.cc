@@ -1,7 +1,7 @@
 #include <deal.II/base/exceptions.h>
 
 #include <nappe/analysis/adhesion_limits.h>
-#include <nappe/io/sheet_case.h>
+#include <nappe/analysis/state_summary.h>
 
 #include <algorithm>
 #include <cmath>
@@ -141,12 +141,13 @@ namespace nappe
                            "path states, exact slopes dE/dΓ)");
   }
 
-  AdhesionLimits find_adhesion_limits(const SheetCase &c, const AdhesionPathSettings &s, MPI_Comm comm,
+  AdhesionLimits find_adhesion_limits(const SheetProblem &problem, const AdhesionPathSettings &s, MPI_Comm comm,
                                       std::ostream *log)
   {
-    AdhesionLimits limits;
-    limits.lowering     = follow_adhesion_path(c, Protocol::grown_conformal, s, comm, log);
-    limits.raising      = follow_adhesion_path(c, Protocol::laid_down, s, comm, log);
+    AdhesionLimits    limits;
+    const PathMeasure measure = summary_path_measure(problem.model);
+    limits.lowering = follow_adhesion_path(problem, StartProtocol::grown_conformal, s, measure, comm, log);
+    limits.raising  = follow_adhesion_path(problem, StartProtocol::laid_down, s, measure, comm, log);
     limits.hold         = hold_threshold(limits.lowering, s.target_fraction);
     limits.snap         = snap_threshold(limits.raising, s.target_fraction);
     limits.equal_energy = equal_energy_threshold(limits.lowering, limits.raising, s.target_fraction, s.relative_tolerance);

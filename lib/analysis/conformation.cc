@@ -1,10 +1,7 @@
 #include <deal.II/base/mpi.h>
-#include <deal.II/base/quadrature_lib.h>
-#include <deal.II/fe/fe_values.h>
 
 #include <nappe/analysis/conformation.h>
-#include <nappe/analysis/sheet_measures.h>
-#include <nappe/physics/fvk_kinematics.h>
+#include <nappe/analysis/sheet_quantities.h>
 
 #include <algorithm>
 #include <map>
@@ -95,57 +92,47 @@ namespace nappe
     }
   } // namespace
 
-  ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, double load_factor,
-                                            const AdhesionPotential &adhesion, unsigned int histogram_bins)
+  ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, const LoadLevel &level,
+                                            unsigned int histogram_bins)
   {
-    const QGauss<2> quadrature(system.model().discretization.degree + 1);
-    FEValues<2>     fv(system.mapping(), system.finite_element(), quadrature,
-                   update_values | update_gradients | update_quadrature_points | update_JxW_values);
-    const FEValuesExtractors::Vector in_plane(0);
-    const FEValuesExtractors::Scalar deflection(2);
-    const unsigned int               n_q = quadrature.size();
-    std::vector<double>              w(n_q);
-    std::vector<Tensor<1, 2>>        grad_w(n_q);
-    std::vector<Tensor<2, 2>>        grad_u(n_q);
+    const AdhesionPotential *adhesion = system.model().adhesion();
+    AssertThrow(adhesion, ExcMessage("Conformation measures need an adhesion substrate."));
+    std::vector<const SheetQuantity *> histogrammed;
+    for (const SheetQuantity *q : quantities_for(system.model()))
+      if (!q->histogram_label.empty())
+        histogrammed.push_back(q);
 
-    ConformationMeasures                     m;
-    std::vector<CellRecord>                  records;
-    std::vector<std::pair<double, double>>   principal, areal;
-    for (const auto &cell : system.dof_handler().active_cell_iterators())
-      {
-        if (!cell->is_locally_owned())
-          continue;
-        fv.reinit(cell);
-        fv[deflection].get_function_values(state, w);
-        fv[deflection].get_function_gradients(state, grad_w);
-        fv[in_plane].get_function_gradients(state, grad_u);
-        CellRecord rec;
-        rec.index = cell->global_active_cell_index();
-        for (const unsigned int f : cell->face_indices())
-          if (!cell->at_boundary(f) || cell->has_periodic_neighbor(f))
-            rec.neighbors.push_back(cell->neighbor_or_periodic_neighbor(f)->global_active_cell_index());
-        for (unsigned int q = 0; q < n_q; ++q)
-          {
-            const double g  = adhesion.gap(fv.quadrature_point(q), w[q]);
-            const double dA = fv.JxW(q);
-            rec.area += dA;
-            if (adhesion.conformed(g))
-              m.conformed_area += dA;
-            else
-              rec.suspended_area += dA;
-            if (g > rec.max_gap || q == 0)
-              {
-                rec.max_gap          = g;
-                rec.max_gap_location = fv.quadrature_point(q);
-              }
-            const auto strain   = membrane_strain(system.model(), load_factor, grad_u[q], grad_w[q]);
-            const auto [e1, e2] = principal_values(strain);
-            principal.emplace_back(e1, dA);
-            areal.emplace_back(e1 + e2, dA);
-          }
-        m.sheet_area += rec.area;
-        records.push_back(std::move(rec));
-      }
+    ConformationMeasures                                 m;
+    std::vector<CellRecord>                              records;
+    std::vector<std::vector<std::pair<double, double>>> samples(histogrammed.size());
+    for_each_cell(system, state, level, [&](const CellPoints &cp) {
+      const auto &cell = cp.cell;
+      CellRecord  rec;
+      rec.index = cell->global_active_cell_index();
+      for (const unsigned int f : cell->face_indices())
+        if (!cell->at_boundary(f) || cell->has_periodic_neighbor(f))
+          rec.neighbors.push_back(cell->neighbor_or_periodic_neighbor(f)->global_active_cell_index());
+      for (std::size_t q = 0; q < cp.points.size(); ++q)
+        {
+          const PointState &p  = cp.points[q];
+          const double      g  = adhesion->gap(p.x, p.w);
+          const double      dA = cp.weights[q];
+          rec.area += dA;
+          if (adhesion->conformed(g))
+            m.conformed_area += dA;
+          else
+            rec.suspended_area += dA;
+          if (g > rec.max_gap || q == 0)
+            {
+              rec.max_gap          = g;
+              rec.max_gap_location = p.x;
+            }
+          for (std::size_t h = 0; h < histogrammed.size(); ++h)
+            samples[h].emplace_back(histogrammed[h]->evaluate(p), dA);
+        }
+      m.sheet_area += rec.area;
+      records.push_back(std::move(rec));
+    });
     const MPI_Comm comm = system.communicator();
     m.conformed_area    = Utilities::MPI::sum(m.conformed_area, comm);
     m.sheet_area        = Utilities::MPI::sum(m.sheet_area, comm);
@@ -166,8 +153,8 @@ namespace nappe
     m.suspended_regions = Utilities::MPI::broadcast(comm, m.suspended_regions, 0);
     m.max_gap           = Utilities::MPI::broadcast(comm, m.max_gap, 0);
     m.max_gap_location  = Utilities::MPI::broadcast(comm, m.max_gap_location, 0);
-    m.principal_strain_histogram = make_histogram("max principal strain", principal, histogram_bins, comm);
-    m.areal_strain_histogram     = make_histogram("areal strain", areal, histogram_bins, comm);
+    for (std::size_t h = 0; h < histogrammed.size(); ++h)
+      m.histograms.push_back(make_histogram(histogrammed[h]->histogram_label, samples[h], histogram_bins, comm));
     return m;
   }
 } // namespace nappe

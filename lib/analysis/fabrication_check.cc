@@ -1,7 +1,7 @@
 #include <deal.II/base/exceptions.h>
 
 #include <nappe/analysis/fabrication_check.h>
-#include <nappe/io/sheet_case.h>
+#include <nappe/analysis/state_summary.h>
 
 #include <cmath>
 #include <sstream>
@@ -10,9 +10,7 @@ namespace nappe
 {
   std::string verdict(const AdhesionPathPoint &state, double target)
   {
-    if (state.conformed_fraction >= target)
-      return "conforms";
-    return state.conformed_fraction >= 0.05 ? "partially conformed" : "suspended";
+    return regime_name(classify_regime(state.conformed_fraction, target));
   }
 
   std::vector<double> verdict_work_of_adhesion_values(const FabricationCheckSettings &s)
@@ -49,31 +47,33 @@ namespace nappe
   namespace
   {
     /// Safe: still conformed at the weakest Γ, and below the fracture strain there.
-    bool is_safe(const SheetCase &c, const FabricationCheckSettings &s, AdhesionPathSettings path, double fracture,
-                 MPI_Comm comm)
+    bool is_safe(const SheetProblem &problem, const FabricationCheckSettings &s, AdhesionPathSettings path,
+                 double fracture, MPI_Comm comm)
     {
       path.lowest_work_of_adhesion  = s.lowest_work_of_adhesion;
       path.highest_work_of_adhesion = s.highest_work_of_adhesion;
       path.stops.clear();
-      const AdhesionPath lowering = follow_adhesion_path(c, Protocol::grown_conformal, path, comm);
+      const AdhesionPath lowering = follow_adhesion_path(problem, StartProtocol::grown_conformal, path,
+                                                         summary_path_measure(problem.model), comm);
       if (!lowering.complete)
         return false;
       for (const auto &p : lowering.points)
-        if (p.conformed_fraction < path.target_fraction || (fracture > 0 && p.peak_principal_strain > fracture))
+        if (p.conformed_fraction < path.target_fraction ||
+            (fracture > 0 && lowering.value(p, "max_principal_strain") > fracture))
           return false;
       return true;
     }
   } // namespace
 
   void scan_aspect_ratio(FabricationCheck &check, const FabricationCheckSettings &s, const AdhesionPathSettings &path,
-                         const std::function<SheetCase(double)> &case_with_height, MPI_Comm comm,
+                         const std::function<SheetProblem(double)> &problem_with_height, MPI_Comm comm,
                          unsigned int bisections, std::ostream *log)
   {
     AssertThrow(s.feature_width > 0 && s.feature_height > 0,
                 dealii::ExcMessage("Fabrication check: the aspect-ratio scan needs a positive feature height "
                                    "and Feature width."));
     const auto safe = [&](double h) {
-      const bool ok = is_safe(case_with_height(h), s, path, check.fracture_strain, comm);
+      const bool ok = is_safe(problem_with_height(h), s, path, check.fracture_strain, comm);
       if (log)
         *log << "  feature height " << h * 1e9 << " nm (aspect ratio " << h / s.feature_width << "): "
              << (ok ? "safe" : "not safe") << "\n";

@@ -1,32 +1,24 @@
-#include <deal.II/base/quadrature_lib.h>
-#include <deal.II/fe/fe_values.h>
+#include <deal.II/base/mpi.h>
 
 #include <nappe/analysis/sheet_measures.h>
-#include <nappe/physics/fvk_kinematics.h>
+
+#include <cmath>
+#include <limits>
 
 namespace nappe
 {
   using namespace dealii;
 
-  SymmetricTensor<2, 2> membrane_strain(const SheetModel &model, double load_factor, const Tensor<2, 2> &grad_u,
-                                        const Tensor<1, 2> &grad_w)
-  {
-    SymTensor strain = load_factor * (model.loads.mean_strain - model.loads.eigenstrain) + symmetrize(grad_u);
-    if (model.geometric_nonlinearity)
-      strain += 0.5 * symmetric_outer(grad_w, grad_w);
-    return strain;
-  }
-
   namespace
   {
-    /// Keeps the candidate with the larger key; ties keep the first.
-    void keep_larger(LocatedValue &best, double &best_key, double key, double value, const Point<2> &where)
+    /// The number compared to find the extreme: larger is more extreme.
+    double ranking(Extreme kind, double value)
     {
-      if (key > best_key)
+      switch (kind)
         {
-          best_key       = key;
-          best.value     = value;
-          best.location  = where;
+          case Extreme::smallest: return -value;
+          case Extreme::largest_magnitude: return std::abs(value);
+          default: return value;
         }
     }
 
@@ -50,54 +42,37 @@ namespace nappe
     }
   } // namespace
 
-  SheetMeasures measure_sheet(const SheetSystem &system, const Vector &state, double load_factor)
+  const LocatedValue &SheetMeasures::at(const std::string &key) const
   {
-    const unsigned int p = system.model().discretization.degree;
-    const QGauss<2>    quadrature(p + 1);
-    FEValues<2>        fv(system.mapping(), system.finite_element(), quadrature,
-                   update_values | update_gradients | update_hessians | update_quadrature_points);
-    const FEValuesExtractors::Vector in_plane(0);
-    const FEValuesExtractors::Scalar deflection(2);
-    const unsigned int n_q = quadrature.size();
-    std::vector<Tensor<2, 2>> grad_u(n_q), hess_w(n_q);
-    std::vector<Tensor<1, 2>> grad_w(n_q);
-    std::vector<double>       w(n_q);
+    for (const auto &e : extremes)
+      if (e.quantity->extreme_key == key)
+        return e.extreme;
+    AssertThrow(false, ExcMessage("No extreme '" + key + "' was measured for this sheet."));
+    return extremes.front().extreme;
+  }
 
-    constexpr double lowest = -std::numeric_limits<double>::max();
-    SheetMeasures    m;
-    double key[6] = {lowest, lowest, lowest, lowest, lowest, lowest};
-    for (const auto &cell : system.dof_handler().active_cell_iterators())
-      {
-        if (!cell->is_locally_owned())
-          continue;
-        fv.reinit(cell);
-        fv[in_plane].get_function_gradients(state, grad_u);
-        fv[deflection].get_function_gradients(state, grad_w);
-        fv[deflection].get_function_hessians(state, hess_w);
-        fv[deflection].get_function_values(state, w);
-        for (unsigned int q = 0; q < n_q; ++q)
+  SheetMeasures measure_sheet(const SheetSystem &system, const Vector &state, const LoadLevel &level)
+  {
+    SheetMeasures m;
+    for (const SheetQuantity *q : quantities_for(system.model()))
+      if (q->extreme != Extreme::none)
+        m.extremes.push_back({q, {}});
+    std::vector<double> key(m.extremes.size(), -std::numeric_limits<double>::max());
+    for_each_cell(system, state, level, [&](const CellPoints &cell) {
+      for (const PointState &p : cell.points)
+        for (std::size_t k = 0; k < m.extremes.size(); ++k)
           {
-            const Point<2> &x              = fv.quadrature_point(q);
-            const auto      strain         = membrane_strain(system.model(), load_factor, grad_u[q], grad_w[q]);
-            const auto [e1, e2]            = principal_values(strain);
-            const auto [k1, k2]            = principal_values(symmetrize(hess_w[q]));
-            const double    areal          = e1 + e2;
-            const double    curvature      = std::max(std::abs(k1), std::abs(k2));
-            keep_larger(m.max_deflection, key[0], std::abs(w[q]), w[q], x);
-            keep_larger(m.max_principal_strain, key[1], e1, e1, x);
-            keep_larger(m.min_principal_strain, key[2], -e2, e2, x);
-            keep_larger(m.max_areal_strain, key[3], std::abs(areal), areal, x);
-            keep_larger(m.max_shear_strain, key[4], 0.5 * (e1 - e2), 0.5 * (e1 - e2), x);
-            keep_larger(m.max_curvature, key[5], curvature, curvature, x);
+            const double value = m.extremes[k].quantity->evaluate(p);
+            const double rank  = ranking(m.extremes[k].quantity->extreme, value);
+            if (rank > key[k]) // ties keep the first point met
+              {
+                key[k]                 = rank;
+                m.extremes[k].extreme = {value, p.x};
+              }
           }
-      }
-    const MPI_Comm comm = system.communicator();
-    m.max_deflection       = agree(m.max_deflection, key[0], comm);
-    m.max_principal_strain = agree(m.max_principal_strain, key[1], comm);
-    m.min_principal_strain = agree(m.min_principal_strain, key[2], comm);
-    m.max_areal_strain     = agree(m.max_areal_strain, key[3], comm);
-    m.max_shear_strain     = agree(m.max_shear_strain, key[4], comm);
-    m.max_curvature        = agree(m.max_curvature, key[5], comm);
+    });
+    for (std::size_t k = 0; k < m.extremes.size(); ++k)
+      m.extremes[k].extreme = agree(m.extremes[k].extreme, key[k], system.communicator());
     return m;
   }
 } // namespace nappe

@@ -2,11 +2,7 @@
 #include <deal.II/dofs/dof_tools.h>
 #include <deal.II/fe/component_mask.h>
 
-#include <nappe/analysis/conformation.h>
-#include <nappe/analysis/sheet_measures.h>
-#include <nappe/io/sheet_case.h>
-#include <nappe/io/sheet_run.h>
-#include <nappe/physics/scaled_potential.h>
+#include <nappe/physics/adhesion_potential.h>
 #include <nappe/solvers/adhesion_path.h>
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/load_stepping.h>
@@ -20,40 +16,36 @@ namespace nappe
 {
   namespace
   {
-    /// One path: the system with Γ scaled, the minimiser and the last certified state.
+    const AdhesionPotential &adhesion_of(const SheetProblem &p)
+    {
+      AssertThrow(p.model.adhesion(),
+                  dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
+      return *p.model.adhesion();
+    }
+
+    /// One path: the system, the minimiser and the last certified state; Γ enters as the adhesion
+    /// factor c = Γ/Γ_problem.
     class PathFollower
     {
     public:
-      PathFollower(const SheetCase &c, const AdhesionPathSettings &s, MPI_Comm comm, std::ostream *log)
-        : scaled_(scaled_substrate(c))
-        , case_(with_substrate(c, scaled_))
+      PathFollower(const SheetProblem &p, const AdhesionPathSettings &s, const PathMeasure &measure, MPI_Comm comm,
+                   std::ostream *log)
+        : problem_(p)
+        , adhesion_(adhesion_of(p))
         , settings_(s)
-        , system_(case_.model, case_.domain, comm)
-        , minimizer_(system_, case_.newton, nullptr)
+        , measure_(measure)
+        , system_(p.model, p.domain, comm)
+        , minimizer_(system_, p.newton, nullptr, make_hessian_solvers(p.solver, comm))
         , log_(log)
         , w_dofs_(dealii::DoFTools::extract_dofs(system_.dof_handler(), dealii::ComponentMask({false, false, true})))
       {
       }
 
-      AdhesionPath run(Protocol start);
+      AdhesionPath run(StartProtocol start);
 
     private:
-      static std::shared_ptr<ScaledPotential> scaled_substrate(const SheetCase &c)
-      {
-        AssertThrow(c.adhesion, dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
-        return std::make_shared<ScaledPotential>(c.adhesion);
-      }
-
-      /// The case with its adhesion replaced by the scaled one (the system shares the pointer).
-      static SheetCase with_substrate(const SheetCase &c, std::shared_ptr<const SurfacePotential> substrate)
-      {
-        SheetCase scaled       = c;
-        scaled.model.substrate = std::move(substrate);
-        return scaled;
-      }
-
-      double case_gamma() const { return case_.adhesion->law().work_of_adhesion(); }
-      void   set_gamma(double gamma) { scaled_->set_factor(gamma / case_gamma()); }
+      double    problem_gamma() const { return adhesion_.law().work_of_adhesion(); }
+      LoadLevel level(double gamma) const { return LoadLevel(1.0, gamma / problem_gamma()); }
       AdhesionPathPoint measure(const Vector &owned, double gamma, unsigned int iterations) const;
       double            max_deflection_change(const Vector &a, const Vector &b) const;
       double            next_gamma(double gamma, double step, bool lowering) const;
@@ -63,34 +55,31 @@ namespace nappe
           *log_ << s << std::flush;
       }
 
-      std::shared_ptr<ScaledPotential> scaled_; ///< Γ/Γ_case; shared with the system's model
-      SheetCase            case_;
-      AdhesionPathSettings settings_;
-      SheetSystem          system_;
-      EnergyMinimizer      minimizer_;
-      std::ostream        *log_;
-      dealii::IndexSet     w_dofs_;
+      const SheetProblem      &problem_;
+      const AdhesionPotential &adhesion_;
+      AdhesionPathSettings     settings_;
+      const PathMeasure       &measure_;
+      SheetSystem              system_;
+      EnergyMinimizer          minimizer_;
+      std::ostream            *log_;
+      dealii::IndexSet         w_dofs_;
     };
 
     AdhesionPathPoint PathFollower::measure(const Vector &owned, double gamma, unsigned int iterations) const
     {
       Vector ghosted = system_.make_ghosted_vector();
       ghosted        = owned;
-      const double area = system_.domain().area();
-      const EnergyParts e = system_.energy(ghosted, 1.0);
+      const double      area = system_.domain().area();
+      const EnergyParts e    = system_.energy(ghosted, level(gamma));
       AdhesionPathPoint p;
       p.work_of_adhesion              = gamma;
       p.energy_per_area.stretching    = e.stretching / area;
       p.energy_per_area.bending       = e.bending / area;
       p.energy_per_area.substrate     = e.substrate / area;
       p.energy_per_area.external_work = e.external_work / area;
-      const ConformationMeasures cm   = measure_conformation(system_, ghosted, 1.0, *case_.adhesion, 1);
-      p.conformed_fraction            = cm.conformed_fraction;
-      p.max_gap                       = cm.max_gap;
-      const SheetMeasures sm          = measure_sheet(system_, ghosted, 1.0);
-      p.peak_principal_strain         = sm.max_principal_strain.value;
-      p.max_areal_strain              = sm.max_areal_strain.value;
-      p.max_shear_strain              = sm.max_shear_strain.value;
+      StateSummary summary            = measure_.measure(system_, ghosted, level(gamma));
+      p.conformed_fraction            = summary.conformed_fraction;
+      p.values                        = std::move(summary.values);
       p.newton_iterations             = iterations;
       return p;
     }
@@ -119,26 +108,26 @@ namespace nappe
       std::ostringstream s;
       s << std::setprecision(5) << "  Γ = " << p.work_of_adhesion << " J/m²: conformed " << std::setprecision(4)
         << 100 * p.conformed_fraction << " %, energy " << std::setprecision(5) << p.energy_per_area.total()
-        << " J/m², peak strain " << std::setprecision(3) << 100 * p.peak_principal_strain << " % ("
-        << p.newton_iterations << " Newton iterations)" << (p.after_jump ? " after a jump" : "") << "\n";
+        << " J/m² (" << p.newton_iterations << " Newton iterations)" << (p.after_jump ? " after a jump" : "") << "\n";
       return s.str();
     }
 
-    AdhesionPath PathFollower::run(Protocol start)
+    AdhesionPath PathFollower::run(StartProtocol start)
     {
       dealii::Timer timer;
       AdhesionPath  path;
-      path.lowering = start == Protocol::grown_conformal;
+      path.value_names = measure_.names;
+      path.lowering    = start == StartProtocol::grown_conformal;
       double gamma  = path.lowering ? settings_.highest_work_of_adhesion : settings_.lowest_work_of_adhesion;
       const double end = path.lowering ? settings_.lowest_work_of_adhesion : settings_.highest_work_of_adhesion;
       say(std::string(path.lowering ? "Lowering Γ from the conformed state" : "Raising Γ from the laid-down state") +
           "\n");
 
-      set_gamma(gamma);
-      SheetCase start_case = case_;
-      start_case.protocol  = start;
-      Vector state         = initial_state(system_, start_case);
-      const LoadPathReport load = follow_load_path(minimizer_, state, case_.stepping, nullptr);
+      SheetProblem start_problem = problem_;
+      start_problem.start        = start;
+      Vector state               = initial_state(system_, start_problem);
+      const LoadPathReport load =
+        follow_load_path(minimizer_, state, problem_.stepping, nullptr, level(gamma).adhesion);
       path.solves += load.steps.size();
       if (!load.converged)
         {
@@ -148,7 +137,7 @@ namespace nappe
       path.points.push_back(measure(state, gamma, load.newton_iterations));
       say(describe(path.points.back()));
 
-      const double h0    = case_.adhesion->law().equilibrium_gap();
+      const double h0    = adhesion_.law().equilibrium_gap();
       double       step  = settings_.initial_step;
       Vector       trial = state;
       while (std::abs(gamma - end) > 1e-12 * end)
@@ -162,9 +151,8 @@ namespace nappe
             }
           const double next = next_gamma(gamma, step, path.lowering);
           const bool   at_tolerance = std::abs(std::log(next / gamma)) <= settings_.relative_tolerance * 1.000001;
-          trial = state;
-          set_gamma(next);
-          const MinimizerReport report = minimizer_.minimize(trial, 1.0, 0.0);
+          trial                        = state;
+          const MinimizerReport report = minimizer_.minimize(trial, level(next), 0.0);
           if (!report.converged)
             {
               if (at_tolerance)
@@ -204,6 +192,14 @@ namespace nappe
     }
   } // namespace
 
+  double AdhesionPath::value(const AdhesionPathPoint &point, const std::string &name) const
+  {
+    const auto it = std::find(value_names.begin(), value_names.end(), name);
+    AssertThrow(it != value_names.end() && point.values.size() == value_names.size(),
+                dealii::ExcMessage("The adhesion path has no value '" + name + "'."));
+    return point.values[it - value_names.begin()];
+  }
+
   void check_adhesion_path_settings(const AdhesionPathSettings &s)
   {
     AssertThrow(s.lowest_work_of_adhesion > 0 && s.highest_work_of_adhesion > s.lowest_work_of_adhesion,
@@ -218,11 +214,12 @@ namespace nappe
                                    "Largest step."));
   }
 
-  AdhesionPath follow_adhesion_path(const SheetCase &sheet_case, Protocol start, const AdhesionPathSettings &settings,
-                                    MPI_Comm comm, std::ostream *log)
+  AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
+                                    const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
+                                    std::ostream *log)
   {
     check_adhesion_path_settings(settings);
-    PathFollower follower(sheet_case, settings, comm, log);
+    PathFollower follower(problem, settings, measure, comm, log);
     return follower.run(start);
   }
 } // namespace nappe

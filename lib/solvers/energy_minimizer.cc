@@ -32,32 +32,33 @@ namespace nappe
     }
   } // namespace
 
-  EnergyMinimizer::EnergyMinimizer(SheetSystem &system, const MinimizerSettings &settings, std::ostream *log)
+  EnergyMinimizer::EnergyMinimizer(SheetSystem &system, const MinimizerSettings &settings, std::ostream *log,
+                                   HessianSolvers solvers)
     : system_(system)
     , settings_(settings)
     , log_(log)
-    , solver_(system.communicator())
+    , solvers_(solvers.solver ? std::move(solvers) : make_hessian_solvers(SolverSettings(), system.communicator()))
     , residual_(system.make_owned_vector())
     , diagonal_(system.make_owned_vector())
   {
   }
 
-  double EnergyMinimizer::energy_at(const Vector &owned_state, double load_factor) const
+  double EnergyMinimizer::energy_at(const Vector &owned_state, const LoadLevel &level) const
   {
     Vector ghosted = system_.make_ghosted_vector();
     ghosted        = owned_state;
-    return system_.energy(ghosted, load_factor).total();
+    return system_.energy(ghosted, level).total();
   }
 
-  // Factorises the Hessian held in the system; if it is indefinite, adds μ·diag|H| with μ grown
-  // until the LDLᵀ factorisation has no negative pivot. Returns the pivots of the unshifted matrix.
+  // Prepares the Hessian held in the system; if it is indefinite, adds μ·diag|H| with μ grown
+  // until the certificate finds no negative eigenvalue. Returns the count of the unshifted matrix.
   // The search starts a little below the last shift that worked: a shift much larger than needed
   // damps the soft modes (a moving adhesion front) and makes the iteration crawl.
   unsigned int EnergyMinimizer::factorize_positive_definite(double &shift)
   {
     SparseMatrix &H = system_.hessian_matrix();
-    solver_.factorize(H);
-    const unsigned int negative = solver_.n_negative_pivots();
+    solvers_.solver->prepare(H);
+    const unsigned int negative = solvers_.certificate->negative_eigenvalues(H);
     shift                       = 0.0;
     if (negative == 0)
       return 0;
@@ -71,8 +72,8 @@ namespace nappe
           H.add(i, i, (mu - added) * diagonal_(i));
         H.compress(VectorOperation::add);
         added = mu;
-        solver_.factorize(H);
-        if (solver_.n_negative_pivots() == 0)
+        solvers_.solver->prepare(H);
+        if (solvers_.certificate->negative_eigenvalues(H) == 0)
           {
             shift       = mu;
             last_shift_ = mu;
@@ -84,7 +85,7 @@ namespace nappe
   }
 
   bool EnergyMinimizer::line_search(Vector &state, const Vector &direction, double energy, double slope,
-                                    double load_factor, double &step)
+                                    const LoadLevel &level, double &step)
   {
     const auto &constraints = system_.constraints();
     Vector      trial       = system_.make_owned_vector();
@@ -95,7 +96,7 @@ namespace nappe
         trial = state;
         trial.add(step, direction);
         constraints.distribute(trial);
-        const double trial_energy = energy_at(trial, load_factor);
+        const double trial_energy = energy_at(trial, level);
         // Near convergence the decrease drops below round-off of the energy: accept the full step.
         if (trial_energy <= energy + settings_.armijo_slope * step * slope ||
             (k == 0 && std::abs(slope) < round_off && trial_energy <= energy + 10.0 * round_off))
@@ -109,7 +110,7 @@ namespace nappe
 
   // Moves from a saddle along the direction of most negative curvature (generalised eigenvector
   // of H v = λ·diag|H| v with the smallest λ, by inverse iteration with the shifted factorisation).
-  bool EnergyMinimizer::escape_saddle(Vector &state, double energy, double load_factor, double shift)
+  bool EnergyMinimizer::escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift)
   {
     const auto   &constraints = system_.constraints();
     SparseMatrix &H           = system_.hessian_matrix();
@@ -126,7 +127,7 @@ namespace nappe
       {
         tmp = d;
         tmp.scale(diagonal_);
-        solver_.solve(tmp, d);
+        solvers_.solver->solve(tmp, d);
         constraints.set_zero(d);
         d /= d.l2_norm();
       }
@@ -144,7 +145,7 @@ namespace nappe
         g        = state;
         return g;
       }(),
-      load_factor, residual_, nullptr);
+      level, residual_, nullptr);
     if (residual_ * d > 0.0)
       d *= -1.0;
     // Scale the direction so that its largest entry is a tenth of the domain's diameter.
@@ -157,7 +158,7 @@ namespace nappe
         trial = state;
         trial.add(step, d);
         constraints.distribute(trial);
-        if (energy_at(trial, load_factor) < energy - 1e-12 * std::abs(energy))
+        if (energy_at(trial, level) < energy - 1e-12 * std::abs(energy))
           {
             state = trial;
             return true;
@@ -166,7 +167,7 @@ namespace nappe
     return false;
   }
 
-  MinimizerReport EnergyMinimizer::minimize(Vector &state, double load_factor, double force_scale)
+  MinimizerReport EnergyMinimizer::minimize(Vector &state, const LoadLevel &level, double force_scale)
   {
     MinimizerReport report;
     Vector          ghosted   = system_.make_ghosted_vector();
@@ -182,7 +183,7 @@ namespace nappe
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted            = state;
-        const EnergyParts e = system_.assemble(ghosted, load_factor, residual_, &H, tolerance < 0.0 ? &magnitude : nullptr);
+        const EnergyParts e = system_.assemble(ghosted, level, residual_, &H, tolerance < 0.0 ? &magnitude : nullptr);
         const double      r = residual_.l2_norm();
         // The tolerance is relative to the internal force magnitude (never zero at equilibrium),
         // the initial imbalance and the caller's scale, whichever is largest.
@@ -207,7 +208,7 @@ namespace nappe
         report.tolerance  = tolerance;
 
         direction = residual_;
-        solver_.solve(residual_, direction);
+        solvers_.solver->solve(residual_, direction);
         direction *= -1.0;
         const double slope = residual_ * direction;
         // At the round-off floor of the residual the Newton decrement −R·δ (twice the predicted
@@ -227,7 +228,7 @@ namespace nappe
                 return report;
               }
             if (report.saddle_escapes++ >= settings_.max_saddle_escapes ||
-                !escape_saddle(state, e.total(), load_factor, shift))
+                !escape_saddle(state, e.total(), level, shift))
               {
                 report.message = "converged to a saddle point (" + std::to_string(negative) +
                                  " negative pivots) and could not leave it";
@@ -241,7 +242,7 @@ namespace nappe
           break;
 
         double       step  = 0.0;
-        const bool   ok    = line_search(state, direction, e.total(), slope, load_factor, step);
+        const bool   ok    = line_search(state, direction, e.total(), slope, level, step);
         rec.step_length    = step;
         report.history.push_back(rec);
         std::ostringstream s;

@@ -8,7 +8,7 @@
 namespace nappe
 {
   LoadPathReport follow_load_path(EnergyMinimizer &minimizer, Vector &state, const LoadSteppingSettings &settings,
-                                  std::ostream *log)
+                                  std::ostream *log, double adhesion_factor)
   {
     dealii::Timer  timer;
     LoadPathReport path;
@@ -23,7 +23,7 @@ namespace nappe
         if (log)
           *log << "  load step " << path.steps.size() + 1 << ": λ = " << std::setprecision(4) << target << " ("
                << std::setprecision(3) << timer.wall_time() << " s elapsed)\n";
-        MinimizerReport report = minimizer.minimize(state, target, 0.0);
+        MinimizerReport report = minimizer.minimize(state, LoadLevel(target, adhesion_factor), 0.0);
         path.newton_iterations += report.iterations;
         if (report.converged)
           {

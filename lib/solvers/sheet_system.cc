@@ -338,14 +338,14 @@ namespace nappe
 
   Vector SheetSystem::make_ghosted_vector() const { return Vector(owned_dofs_, relevant_dofs_, comm_); }
 
-  EnergyParts SheetSystem::energy(const Vector &state, double load_factor) const
+  EnergyParts SheetSystem::energy(const Vector &state, const LoadLevel &level) const
   {
-    return assemble_parts(state, load_factor, nullptr, nullptr, nullptr);
+    return assemble_parts(state, level, nullptr, nullptr, nullptr);
   }
 
-  EnergyParts SheetSystem::assemble(const Vector &state, double load_factor, Vector &residual,
+  EnergyParts SheetSystem::assemble(const Vector &state, const LoadLevel &level, Vector &residual,
                                     SparseMatrix *hessian, Vector *force_magnitude) const
   {
-    return assemble_parts(state, load_factor, &residual, hessian, force_magnitude);
+    return assemble_parts(state, level, &residual, hessian, force_magnitude);
   }
 } // namespace nappe

@@ -34,7 +34,7 @@ namespace nappe
     }
   } // namespace
 
-  EnergyParts SheetSystem::assemble_parts(const Vector &state, double load_factor, Vector *residual,
+  EnergyParts SheetSystem::assemble_parts(const Vector &state, const LoadLevel &level, Vector *residual,
                                           SparseMatrix *hessian, Vector *magnitude) const
   {
     if (magnitude)
@@ -44,9 +44,9 @@ namespace nappe
     if (hessian)
       *hessian = 0.0;
     EnergyParts parts;
-    assemble_cells(state, load_factor, residual, hessian, magnitude, parts);
+    assemble_cells(state, level, residual, hessian, magnitude, parts);
     assemble_edges(state, residual, hessian, magnitude, parts);
-    assemble_point_loads(state, load_factor, residual, parts);
+    assemble_point_loads(state, level.load, residual, parts);
     if (residual)
       residual->compress(VectorOperation::add);
     if (hessian)
@@ -60,7 +60,7 @@ namespace nappe
     return parts;
   }
 
-  void SheetSystem::assemble_cells(const Vector &state, double load_factor, Vector *residual,
+  void SheetSystem::assemble_cells(const Vector &state, const LoadLevel &level, Vector *residual,
                                    SparseMatrix *hessian, Vector *magnitude, EnergyParts &parts) const
   {
     const unsigned int p = model_.discretization.degree;
@@ -72,9 +72,8 @@ namespace nappe
 
     const SheetMaterial &mat       = model_.material;
     const bool           nonlinear = model_.geometric_nonlinearity;
-    const SymTensor      base_strain =
-      load_factor * (model_.loads.mean_strain - model_.loads.eigenstrain);
-    const double pressure = load_factor * model_.loads.pressure;
+    const SymTensor      base_strain = model_.base_strain(level.load);
+    const double         pressure    = level.load * model_.loads.pressure;
 
     std::vector<Tensor<2, 2>> grad_u(n_q), hess_w(n_q);
     std::vector<Tensor<1, 2>> grad_w(n_q);
@@ -100,15 +99,18 @@ namespace nappe
         for (unsigned int q = 0; q < n_q; ++q)
           {
             const double    dA     = fv.JxW(q);
-            SymTensor       strain = base_strain + symmetrize(grad_u[q]);
-            if (nonlinear)
-              strain += 0.5 * symmetric_outer(grad_w[q], grad_w[q]);
+            const SymTensor strain    = membrane_strain(base_strain, grad_u[q], grad_w[q], nonlinear);
             const SymTensor stress    = membrane_stress(strain, mat);
             const SymTensor curvature = symmetrize(hess_w[q]);
             const SymTensor moment    = bending_moment(curvature, mat);
             double          psi = 0.0, dpsi = 0.0, d2psi = 0.0;
             if (model_.substrate)
-              model_.substrate->evaluate(fv.quadrature_point(q), w[q], psi, dpsi, d2psi);
+              {
+                model_.substrate->evaluate(fv.quadrature_point(q), w[q], psi, dpsi, d2psi);
+                psi *= level.adhesion;
+                dpsi *= level.adhesion;
+                d2psi *= level.adhesion;
+              }
 
             parts.stretching += 0.5 * (stress * strain) * dA;
             parts.bending += 0.5 * (moment * curvature) * dA;

@@ -59,9 +59,10 @@ namespace nappe
   AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising, double target,
                                            double relative_tolerance);
 
-  /// Follows both paths over the settings' range and locates the three thresholds.
-  AdhesionLimits find_adhesion_limits(const SheetCase &sheet_case, const AdhesionPathSettings &settings, MPI_Comm comm,
-                                      std::ostream *log = nullptr);
+  /// Follows both paths over the settings' range (states measured by summary_path_measure()) and
+  /// locates the three thresholds.
+  AdhesionLimits find_adhesion_limits(const SheetProblem &problem, const AdhesionPathSettings &settings,
+                                      MPI_Comm comm, std::ostream *log = nullptr);
 
   /// The state a path holds at exactly Γ (a stop of the path), or null if it never landed there.
   const AdhesionPathPoint *point_at(const AdhesionPath &path, double work_of_adhesion);

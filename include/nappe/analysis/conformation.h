@@ -1,5 +1,6 @@
 #pragma once
 
+#include <nappe/analysis/sheet_evaluation.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/solvers/sheet_system.h>
 
@@ -43,10 +44,12 @@ namespace nappe
     double                       max_gap            = 0.0; ///< [m]
     dealii::Point<2>             max_gap_location;
     std::vector<SuspendedRegion> suspended_regions; ///< largest first
-    StrainHistogram              principal_strain_histogram;
-    StrainHistogram              areal_strain_histogram;
+    /// One per quantity of the table with a histogram label (sheet_quantities.h), in table order.
+    std::vector<StrainHistogram> histograms;
   };
 
-  ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, double load_factor,
-                                            const AdhesionPotential &adhesion, unsigned int histogram_bins = 20);
+  /// The conformation of the sheet on its adhesion substrate (the model's), with @p histogram_bins
+  /// bins per histogram. Collective.
+  ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, const LoadLevel &level,
+                                            unsigned int histogram_bins = 20);
 } // namespace nappe

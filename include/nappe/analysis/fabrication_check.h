@@ -51,7 +51,7 @@ namespace nappe
                                         double fracture_strain);
 
   /**
-   * The largest safe aspect ratio of a feature family: @p case_with_height builds the case with a
+   * The largest safe aspect ratio of a feature family: @p problem_with_height builds the problem with a
    * given feature height [m] (all else fixed). A height is safe when the sheet, lowered in Γ from
    * the conformed state at the strongest Γ, is still conformed (fraction ≥ target) at the weakest Γ
    * and its peak principal strain there is below the fracture strain (if known). The height is
@@ -59,9 +59,9 @@ namespace nappe
    */
   void scan_aspect_ratio(FabricationCheck &check, const FabricationCheckSettings &settings,
                          const AdhesionPathSettings &path_settings,
-                         const std::function<SheetCase(double height)> &case_with_height, MPI_Comm comm,
+                         const std::function<SheetProblem(double height)> &problem_with_height, MPI_Comm comm,
                          unsigned int bisections = 6, std::ostream *log = nullptr);
 
-  /// "conforms", "partially conformed" or "suspended" (as conformation_verdict()) for a path state.
+  /// The regime name (classify_regime()) of a path state.
   std::string verdict(const AdhesionPathPoint &state, double target_fraction);
 } // namespace nappe

@@ -2,7 +2,11 @@
 
 #include <deal.II/base/point.h>
 
+#include <nappe/analysis/sheet_quantities.h>
 #include <nappe/solvers/sheet_system.h>
+
+#include <string>
+#include <vector>
 
 namespace nappe
 {
@@ -13,23 +17,25 @@ namespace nappe
     dealii::Point<2> location;
   };
 
+  /// The extreme of one quantity of the table (sheet_quantities.h) over the sheet, in SI.
+  struct QuantityExtreme
+  {
+    const SheetQuantity *quantity = nullptr;
+    LocatedValue         extreme;
+  };
+
   /**
-   * Pointwise extremes of a solved sheet, sampled at the quadrature points. Strains are the
-   * membrane (mid-surface) strains ε = E + sym∇ũ + ½∇w⊗∇w − ε₀ measured from the stress-free state.
+   * Pointwise extremes of a solved sheet, sampled at the quadrature points: one entry for every
+   * quantity of the table that has an Extreme and applies to the model, in table order. The same on
+   * every rank (ties go to the lowest rank, then to the first point met).
    */
   struct SheetMeasures
   {
-    LocatedValue max_deflection;        ///< largest |w| [m] (signed value)
-    LocatedValue max_principal_strain;  ///< largest ε₁ [-]
-    LocatedValue min_principal_strain;  ///< smallest ε₂ [-]
-    LocatedValue max_areal_strain;      ///< largest |tr ε| (biaxial part) [-] (signed value)
-    LocatedValue max_shear_strain;      ///< largest (ε₁ − ε₂)/2 [-]
-    LocatedValue max_curvature;         ///< largest |principal curvature| [1/m]
+    std::vector<QuantityExtreme> extremes;
+
+    /// The extreme reported under @p key (SheetQuantity::extreme_key); throws if there is none.
+    const LocatedValue &at(const std::string &key) const;
   };
 
-  SheetMeasures measure_sheet(const SheetSystem &system, const Vector &state, double load_factor);
-
-  /// The membrane strain at a quadrature point from the field values (shared with the field output).
-  dealii::SymmetricTensor<2, 2> membrane_strain(const SheetModel &model, double load_factor,
-                                                const dealii::Tensor<2, 2> &grad_u, const dealii::Tensor<1, 2> &grad_w);
+  SheetMeasures measure_sheet(const SheetSystem &system, const Vector &state, const LoadLevel &level);
 } // namespace nappe

@@ -3,42 +3,34 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/analysis/fabrication_check.h>
-#include <nappe/geometry/sheet_domain.h>
-#include <nappe/physics/adhesion_potential.h>
-#include <nappe/physics/sheet_model.h>
 #include <nappe/solvers/adhesion_path.h>
-#include <nappe/solvers/energy_minimizer.h>
-#include <nappe/solvers/load_stepping.h>
+#include <nappe/solvers/sheet_problem.h>
 
+#include <map>
 #include <string>
 
 namespace nappe
 {
-  /// How the sheet meets the substrate at the start of the load path.
-  enum class Protocol
+  /// Where and what a run writes (subsection "Output").
+  struct OutputSettings
   {
-    laid_down,      ///< starts flat at a height above the substrate's top and is pulled in (transfer)
-    grown_conformal ///< starts on the surface at the equilibrium gap and relaxes (does it stay?)
+    std::string directory   = ".";
+    std::string base_name   = "sheet";
+    bool        write_fields = true;
+
+    /// "<directory>/<base name>": the stem of every result file.
+    std::string stem() const { return directory + "/" + base_name; }
   };
 
-  /// Everything a case file defines: the physics, the mesh, the solver and the output.
+  /**
+   * A parsed case file: the problem for the solver floor, what to write, and the settings of the
+   * threshold search and the fabrication check. Built by parse_sheet_case(); everything in SI.
+   */
   struct SheetCase
   {
-    std::string          title;
-    SheetModel           model;
-    SheetDomain          domain;
-    LoadSteppingSettings stepping;
-    MinimizerSettings    newton;
-    std::string          output_directory = ".";
-    std::string          output_name      = "sheet";
-    bool                 write_fields     = true;
-    /// false: compute and measure only, write no file (a sweep writes its own records).
-    bool                 write_results    = true;
-    /// The substrate (topography + traction–separation law); null for a free sheet.
-    std::shared_ptr<const AdhesionPotential> adhesion;
-    Protocol protocol = Protocol::laid_down;
-    /// Laid down: initial height above the topography's highest point [m].
-    double initial_clearance = 0.0;
+    std::string    title;
+    SheetProblem   problem;
+    OutputSettings output;
     /// Range and step control of the threshold search in Γ (subsection "Adhesion limits").
     AdhesionPathSettings limits;
     /// Verdict table over an interface's Γ range and aspect-ratio scan (subsection "Fabrication check").

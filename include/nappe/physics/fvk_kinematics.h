@@ -48,6 +48,20 @@ namespace nappe
     return s;
   }
 
+  /**
+   * Membrane strain ε = ε_b + sym∇ũ + ½∇w⊗∇w, with ε_b = λ(E − ε₀) the uniform part
+   * (SheetModel::base_strain); the quadratic term only with geometric nonlinearity. The one
+   * definition used by the assembly, the measures and the fields.
+   */
+  inline SymTensor membrane_strain(const SymTensor &base_strain, const dealii::Tensor<2, 2> &grad_u,
+                                   const dealii::Tensor<1, 2> &grad_w, bool nonlinear)
+  {
+    SymTensor strain = base_strain + dealii::symmetrize(grad_u);
+    if (nonlinear)
+      strain += 0.5 * symmetric_outer(grad_w, grad_w);
+    return strain;
+  }
+
   /// Principal values (λ_max, λ_min) of a symmetric 2×2 tensor.
   inline std::pair<double, double> principal_values(const SymTensor &t)
   {

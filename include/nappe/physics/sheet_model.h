@@ -66,6 +66,24 @@ namespace nappe
     double penalty_factor = 2.0;
   };
 
+  class AdhesionPotential;
+
+  /**
+   * The two factors a state is computed at, passed together wherever a load factor is: the load
+   * factor λ scales every SheetLoads entry; the adhesion factor c scales the substrate potential,
+   * ψ → c·ψ. For an adhesion law this is the work of adhesion Γ → c·Γ at fixed shape (the Γ-linearity
+   * contract of AdhesionLaw). A plain number converts to {λ, c = 1}.
+   */
+  struct LoadLevel
+  {
+    LoadLevel(double load_factor = 1.0, double adhesion_factor = 1.0)
+      : load(load_factor)
+      , adhesion(adhesion_factor)
+    {}
+    double load;     ///< λ [-]
+    double adhesion; ///< c [-]
+  };
+
   /**
    * Everything that defines the sheet's energy: material, edges (by boundary id; ids not listed
    * are free), loads, an optional substrate interaction and the discretisation.
@@ -75,10 +93,20 @@ namespace nappe
     SheetMaterial material;
     std::map<dealii::types::boundary_id, EdgeCondition> edges;
     SheetLoads loads;
-    /// Energy per area ψ(x, w) from a substrate; none if empty.
+    /// Energy per area ψ(x, w) from a substrate; none if empty. The one place the substrate is kept.
     std::shared_ptr<const SurfacePotential> substrate;
     /// Use the von Kármán strain (true) or the linear Kirchhoff plate/membrane (false).
     bool geometric_nonlinearity = true;
     SheetDiscretization discretization;
+
+    /// The substrate as an adhesion potential (topography + traction–separation law), or null if
+    /// there is none or it is another kind of surface potential (e.g. a manufactured load).
+    const AdhesionPotential *adhesion() const;
+
+    /// The uniform part of the membrane strain at load factor λ: λ(E − ε₀) [-].
+    dealii::SymmetricTensor<2, 2> base_strain(double load_factor) const
+    {
+      return load_factor * (loads.mean_strain - loads.eigenstrain);
+    }
   };
 } // namespace nappe

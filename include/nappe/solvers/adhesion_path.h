@@ -1,16 +1,14 @@
 #pragma once
 
-#include <nappe/solvers/sheet_system.h>
+#include <nappe/solvers/sheet_problem.h>
 
+#include <functional>
 #include <ostream>
 #include <string>
 #include <vector>
 
 namespace nappe
 {
-  struct SheetCase;
-  enum class Protocol;
-
   /// Step control of a path in the work of adhesion Γ (all Γ in J/m²).
   struct AdhesionPathSettings
   {
@@ -35,17 +33,30 @@ namespace nappe
   /// Throws, naming the "Adhesion limits/…" entry, if the settings are inconsistent.
   void check_adhesion_path_settings(const AdhesionPathSettings &settings);
 
+  /// What the caller measures of a certified state (the solver floor knows no measures).
+  struct StateSummary
+  {
+    /// Share of the sheet in contact with the substrate [-]; steers the step control.
+    double              conformed_fraction = 0.0;
+    std::vector<double> values; ///< further values, in the order of PathMeasure::names
+  };
+
+  /// How a path measures each certified state: supplied by the caller (the analysis floor).
+  struct PathMeasure
+  {
+    std::vector<std::string> names; ///< the names of StateSummary::values, with their units
+    std::function<StateSummary(const SheetSystem &system, const Vector &ghosted_state, const LoadLevel &level)>
+      measure;
+  };
+
   /// A certified stable state on a path, per unit projected area of the sheet.
   struct AdhesionPathPoint
   {
-    double      work_of_adhesion   = 0.0; ///< Γ [J/m²]
-    double      conformed_fraction = 0.0; ///< [-]
-    EnergyParts energy_per_area;          ///< [J/m²]
-    double      peak_principal_strain = 0.0; ///< [-]
-    double      max_areal_strain      = 0.0; ///< [-]
-    double      max_shear_strain      = 0.0; ///< [-]
-    double      max_gap               = 0.0; ///< [m]
-    unsigned int newton_iterations    = 0;
+    double              work_of_adhesion   = 0.0; ///< Γ [J/m²]
+    double              conformed_fraction = 0.0; ///< [-]
+    EnergyParts         energy_per_area;          ///< [J/m²]
+    std::vector<double> values;                   ///< the PathMeasure's values, in the order of its names
+    unsigned int        newton_iterations = 0;
     /// Reached from the previous point by a jump (snap-through): the branch ended between them.
     bool after_jump = false;
   };
@@ -59,10 +70,14 @@ namespace nappe
   {
     bool                           lowering = true; ///< Γ decreases along the path
     std::vector<AdhesionPathPoint> points;
+    std::vector<std::string>       value_names; ///< names of AdhesionPathPoint::values
     bool                           complete = false; ///< reached the end of the Γ range
     std::string                    message;          ///< why it stopped early, with what to try
     unsigned int                   solves = 0;
     double                         wall_time = 0.0; ///< [s]
+
+    /// The value named @p name of @p point (one of value_names); throws if there is none.
+    double value(const AdhesionPathPoint &point, const std::string &name) const;
   };
 
   /**
@@ -72,8 +87,9 @@ namespace nappe
    * @p start = grown_conformal: the sheet starts on the surface at the highest Γ and Γ is lowered
    * (the conformed branch and what follows when it lets go); laid_down: the sheet starts flat above
    * the substrate at the lowest Γ and Γ is raised (the suspended branch and how it snaps in). The
-   * case's other loads are applied first along its load path. The law keeps its shape while Γ
-   * varies (see ScaledPotential).
+   * problem's other loads are applied first along its load path. Γ varies through the adhesion
+   * factor c = Γ/Γ_problem of the LoadLevel, so the law keeps its shape (AdhesionLaw's Γ-linearity).
+   * Every certified state is measured by @p measure.
    *
    * Step control: a step is accepted when the minimiser certifies a stable minimum and the state
    * stayed on the branch (fraction change ≤ largest_fraction_change, max |Δw| ≤
@@ -82,6 +98,7 @@ namespace nappe
    * recorded. Small steps near a fold keep Newton on the branch up to the fold, where large steps
    * followed by bisection would let it leave early.
    */
-  AdhesionPath follow_adhesion_path(const SheetCase &sheet_case, Protocol start, const AdhesionPathSettings &settings,
-                                    MPI_Comm comm, std::ostream *log = nullptr);
+  AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
+                                    const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
+                                    std::ostream *log = nullptr);
 } // namespace nappe

@@ -36,10 +36,11 @@ namespace nappe
   };
 
   /**
-   * Follows the load path λ: 0 → 1, minimising the energy at each step from the previous
-   * (certified) state; a step that fails is retried with half the increment. @p state (owned)
-   * holds the last certified state on return; it is a result only if the report says converged.
+   * Follows the load path λ: 0 → 1 at the adhesion factor @p adhesion_factor, minimising the energy
+   * at each step from the previous (certified) state; a step that fails is retried with half the
+   * increment. @p state (owned) holds the last certified state on return; it is a result only if the
+   * report says converged.
    */
   LoadPathReport follow_load_path(EnergyMinimizer &minimizer, Vector &state, const LoadSteppingSettings &settings,
-                                  std::ostream *log = nullptr);
+                                  std::ostream *log = nullptr, double adhesion_factor = 1.0);
 } // namespace nappe

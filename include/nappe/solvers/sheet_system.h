@@ -42,6 +42,8 @@ namespace nappe
    *
    * The state vector holds (ũ, w); the total in-plane displacement is u = λE·x + ũ. All constraints
    * are homogeneous, so a state that satisfies them stays feasible under constrained updates.
+   * Energies are evaluated at a LoadLevel: the load factor λ scales the loads, the adhesion factor c
+   * the substrate potential.
    */
   class SheetSystem
   {
@@ -64,8 +66,8 @@ namespace nappe
     /// A ghosted vector (owned + relevant), as required by assembly and output.
     Vector make_ghosted_vector() const;
 
-    /// The energy at @p state (ghosted) and load factor λ, without derivatives.
-    EnergyParts energy(const Vector &state, double load_factor) const;
+    /// The energy at @p state (ghosted) and load level (λ, c), without derivatives.
+    EnergyParts energy(const Vector &state, const LoadLevel &level) const;
 
     /**
      * Energy, gradient (@p residual, owned, constrained entries zero) and, if @p hessian is not
@@ -74,7 +76,7 @@ namespace nappe
      * contributions to the residual: the size of the internal forces, a physical scale for the
      * residual tolerance that does not vanish at equilibrium.
      */
-    EnergyParts assemble(const Vector &state, double load_factor, Vector &residual, SparseMatrix *hessian,
+    EnergyParts assemble(const Vector &state, const LoadLevel &level, Vector &residual, SparseMatrix *hessian,
                          Vector *force_magnitude = nullptr) const;
 
     /// The matrix with the Hessian's sparsity pattern; reused across Newton steps.
@@ -98,9 +100,9 @@ namespace nappe
     void locate_point_loads();
     PointEvaluation evaluate_at(const dealii::Point<2> &p) const;
     void pin_rigid_modes();
-    EnergyParts assemble_parts(const Vector &state, double load_factor, Vector *residual, SparseMatrix *hessian,
+    EnergyParts assemble_parts(const Vector &state, const LoadLevel &level, Vector *residual, SparseMatrix *hessian,
                                Vector *magnitude) const;
-    void assemble_cells(const Vector &state, double load_factor, Vector *residual, SparseMatrix *hessian,
+    void assemble_cells(const Vector &state, const LoadLevel &level, Vector *residual, SparseMatrix *hessian,
                         Vector *magnitude, EnergyParts &parts) const;
     void assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian, Vector *magnitude,
                         EnergyParts &parts) const;

@@ -1,0 +1,82 @@
+#pragma once
+
+#include <nappe/solvers/sheet_system.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace nappe
+{
+  /**
+   * The solver seam: the linear algebra a Newton step needs from the Hessian H of the sheet energy,
+   * behind two small interfaces, so that the minimiser and the continuation do not depend on how H
+   * is solved or how its stability is certified.
+   *
+   * HessianSolver: prepare(H) (a factorisation, or a preconditioner set-up), then any number of
+   * solve(b, x) for x = H⁻¹b. The minimiser only solves with a positive definite H (it shifts an
+   * indefinite one first). Collective over the matrix's communicator.
+   */
+  class HessianSolver
+  {
+  public:
+    virtual ~HessianSolver() = default;
+
+    /// Prepares solves with @p H (assembled, compressed). H must stay alive and unmodified until the next prepare().
+    virtual void prepare(const SparseMatrix &H) = 0;
+
+    /// @p solution = H⁻¹ @p rhs with the prepared H (owned vectors with H's row partition).
+    virtual void solve(const Vector &rhs, Vector &solution) const = 0;
+
+    /// The name it is chosen by in the case file (Solver/Linear solver).
+    virtual std::string name() const = 0;
+  };
+
+  /**
+   * StabilityCertificate: the number of negative eigenvalues of H. Zero certifies that a stationary
+   * state is a strict local minimum (second-order sufficient condition, Nocedal & Wright, Numerical
+   * Optimization, 2nd ed., 2006, Theorem 2.4); a change of the count along a path marks a fold or a
+   * bifurcation. Constrained rows carry a positive diagonal in H and never count.
+   */
+  class StabilityCertificate
+  {
+  public:
+    virtual ~StabilityCertificate() = default;
+
+    /**
+     * Number of negative eigenvalues of @p H, the same on every rank. A certificate that shares its
+     * work with a HessianSolver reuses that solver's last prepare(H) of the same, unmodified matrix.
+     */
+    virtual unsigned int negative_eigenvalues(const SparseMatrix &H) = 0;
+
+    /// The name it is chosen by in the case file (Solver/Stability certificate).
+    virtual std::string name() const = 0;
+  };
+
+  /// Choice of the solver seam's implementations (case file subsection "Solver").
+  struct SolverSettings
+  {
+    std::string linear_solver = "direct LDLT";          ///< a name of hessian_solver_names()
+    std::string certificate   = "LDLT inertia";         ///< a name of stability_certificate_names()
+  };
+
+  /// The linear solver and the certificate one minimiser uses; they may be one object.
+  struct HessianSolvers
+  {
+    std::shared_ptr<HessianSolver>        solver;
+    std::shared_ptr<StabilityCertificate> certificate;
+  };
+
+  /// Names accepted for SolverSettings::linear_solver.
+  std::vector<std::string> hessian_solver_names();
+  /// Names accepted for SolverSettings::certificate.
+  std::vector<std::string> stability_certificate_names();
+
+  /**
+   * Builds the chosen implementations for matrices on @p comm. "direct LDLT" is MUMPS' symmetric
+   * indefinite factorisation (SymmetricDirectSolver); "LDLT inertia" counts its negative pivots
+   * (Sylvester's law of inertia) and shares the factorisation when both are chosen. Throws naming
+   * the entry if a name is unknown.
+   */
+  HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm);
+} // namespace nappe
