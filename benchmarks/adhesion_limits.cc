@@ -6,7 +6,6 @@
 
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/io/sheet_case.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
 
@@ -14,32 +13,32 @@
 
 namespace
 {
-  nappe::SheetCase held_grating(unsigned int refinements)
+  nappe::SheetProblem held_grating(unsigned int refinements)
   {
-    nappe::SheetCase c;
+    nappe::SheetProblem c;
     c.model.material            = nappe::MaterialCatalogue().material("graphene");
     c.domain.length_x           = 40e-9;
     c.domain.length_y           = 2.5e-9;
     c.domain.coarse_cells_x     = 16;
     c.domain.global_refinements = refinements;
     c.domain.periodic           = true;
-    c.adhesion = std::make_shared<nappe::AdhesionPotential>(std::make_shared<nappe::SinusoidalGrating>(2e-9, 40e-9),
-                                                            std::make_shared<nappe::Vdw93Law>(0.45, 0.5e-9),
-                                                            nappe::GapMeasure::normal);
-    c.model.substrate                 = c.adhesion;
-    c.stepping.load_steps             = 1;
-    c.limits.lowest_work_of_adhesion  = 0.01;
-    c.limits.highest_work_of_adhesion = 3.0;
+    c.model.substrate = std::make_shared<nappe::AdhesionPotential>(
+      std::make_shared<nappe::SinusoidalGrating>(2e-9, 40e-9), std::make_shared<nappe::Vdw93Law>(0.45, 0.5e-9),
+      nappe::GapMeasure::normal);
+    c.stepping.load_steps = 1;
     return c;
   }
 
   void threshold_search(benchmark::State &state)
   {
-    const nappe::SheetCase c = held_grating(state.range(0));
-    unsigned int           states = 0;
+    const nappe::SheetProblem  c = held_grating(state.range(0));
+    nappe::AdhesionPathSettings range;
+    range.lowest_work_of_adhesion  = 0.01;
+    range.highest_work_of_adhesion = 3.0;
+    unsigned int states            = 0;
     for (auto _ : state)
       {
-        const nappe::AdhesionLimits limits = nappe::find_adhesion_limits(c, c.limits, MPI_COMM_WORLD);
+        const nappe::AdhesionLimits limits = nappe::find_adhesion_limits(c, range, MPI_COMM_WORLD);
         states = limits.lowering.solves + limits.raising.solves;
       }
     state.counters["minimisations"] = states;

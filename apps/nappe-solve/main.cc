@@ -7,16 +7,14 @@
 //   nappe-solve --print-defaults > case.prm            every parameter, documented, with its unit
 //   nappe-solve --validate case.prm                    check a case file without running it
 //   nappe-solve --list-materials                       the material and interface catalogue
-#include <deal.II/base/mpi.h>
-#include <deal.II/base/parameter_handler.h>
-
-#include <nappe/io/atomic_file.h>
-#include <nappe/io/command_line.h>
-#include <nappe/io/sheet_run.h>
+#include <nappe/io/sheet_report.h>
 #include <nappe/physics/material_catalogue.h>
+#include <nappe/runs/app_driver.h>
+#include <nappe/runs/case_run.h>
+
+#include <deal.II/base/mpi.h>
 
 #include <iostream>
-#include <sstream>
 
 namespace
 {
@@ -68,60 +66,25 @@ subsection Output
   set Base name = demo-pillars
 end
 )";
-
-  const char *usage = "usage: nappe-solve CASE.prm [--set Section/Entry=value]...\n"
-                      "       nappe-solve --demo | --print-defaults | --validate CASE.prm | --list-materials\n";
-
 } // namespace
 
 int main(int argc, char **argv)
 {
-  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
-  dealii::deal_II_exceptions::suppress_stacktrace_in_exceptions();
-  const bool   root = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
-  std::ostream &out = root ? std::cout : *new std::ostringstream;
-  try
-    {
-      std::vector<std::string> args(argv + 1, argv + argc);
-      dealii::ParameterHandler prm;
-      nappe::declare_sheet_case_parameters(prm);
-      if (args.empty() || args[0] == "--help" || args[0] == "-h")
-        {
-          out << usage;
-          return args.empty() ? 1 : 0;
-        }
-      if (args[0] == "--print-defaults")
-        {
-          prm.print_parameters(out, dealii::ParameterHandler::PRM);
-          return 0;
-        }
-      if (args[0] == "--list-materials")
-        {
-          nappe::MaterialCatalogue().print(out);
-          return 0;
-        }
-      const bool validate_only = args[0] == "--validate";
-      if (validate_only)
-        args.erase(args.begin());
-      nappe::read_case_arguments(prm, args, demo_case, usage);
-      const nappe::SheetCase sheet_case = nappe::parse_sheet_case(prm);
-      if (validate_only)
-        {
-          out << "case file is valid: " << sheet_case.title << "\n";
-          return 0;
-        }
-      if (root)
-        nappe::write_atomically(sheet_case.output_directory + "/" + sheet_case.output_name + ".used.prm",
-                                [&](std::ostream &s) { prm.print_parameters(s, dealii::ParameterHandler::PRM); });
-      const auto result = nappe::run_sheet_case(sheet_case, MPI_COMM_WORLD, root ? &std::cout : nullptr);
-      if (root)
-        nappe::print_summary(sheet_case, result, out);
-      return result.converged ? 0 : 2;
-    }
-  catch (const std::exception &e)
-    {
-      if (root)
-        std::cerr << "nappe-solve: error: " << nappe::user_message(e) << "\n";
-      return 1;
-    }
+  nappe::CaseApp app;
+  app.name        = "nappe-solve";
+  app.description = "solves a sheet case (a monolayer on a substrate topography, or a loaded sheet) to a certified "
+                    "stable equilibrium and reports the conformation, strains and energies; writes <stem>.json, CSV "
+                    "tables and VTU fields.";
+  app.demo_case   = demo_case;
+  app.commands["--list-materials"] = [](std::ostream &out) { nappe::MaterialCatalogue().print(out); };
+  app.result_suffixes = {".json", ".pvtu", "_NNNN.vtu", "_strain_histogram.csv", "_suspended_regions.csv",
+                         "_topography.csv", "_map.csv"};
+  app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm) {
+    const bool            root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
+    const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root ? &std::cout : nullptr);
+    if (root)
+      nappe::print_sheet_summary(c, run.result, run.files, std::cout);
+    return nappe::CaseOutcome{run.result.converged ? 0 : 2, run.result.converged};
+  };
+  return nappe::run_case_app(argc, argv, app);
 }

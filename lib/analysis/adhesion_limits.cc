@@ -154,6 +154,18 @@ namespace nappe
     return limits;
   }
 
+  AdhesionPathSettings with_stops(AdhesionPathSettings s, std::vector<double> stops)
+  {
+    std::sort(stops.begin(), stops.end());
+    if (!stops.empty())
+      {
+        s.lowest_work_of_adhesion  = std::min(s.lowest_work_of_adhesion, stops.front());
+        s.highest_work_of_adhesion = std::max(s.highest_work_of_adhesion, stops.back());
+      }
+    s.stops = std::move(stops);
+    return s;
+  }
+
   const AdhesionPathPoint *point_at(const AdhesionPath &path, double gamma)
   {
     for (const auto &p : path.points)

@@ -4,6 +4,8 @@
 #include <nappe/analysis/sheet_quantities.h>
 
 #include <algorithm>
+#include <array>
+#include <limits>
 #include <map>
 #include <numeric>
 
@@ -69,6 +71,30 @@ namespace nappe
       return out;
     }
 
+    /// The floor (s below the middle of its range) and the contact over it.
+    void split_floor_contact(const std::vector<std::array<double, 3>> &contact, ConformationMeasures &m,
+                             MPI_Comm comm)
+    {
+      double low = std::numeric_limits<double>::max(), high = -low;
+      for (const auto &[s, conformed, dA] : contact)
+        {
+          low  = std::min(low, s);
+          high = std::max(high, s);
+        }
+      low               = Utilities::MPI::min(low, comm);
+      high              = Utilities::MPI::max(high, comm);
+      const double  mid = 0.5 * (low + high);
+      const bool    flat = high - low <= 1e-12 * std::max(std::abs(high), 1e-9);
+      for (const auto &[s, conformed, dA] : contact)
+        if (flat || s < mid)
+          {
+            m.floor_area += dA;
+            m.conformed_floor_area += conformed * dA;
+          }
+      m.floor_area           = Utilities::MPI::sum(m.floor_area, comm);
+      m.conformed_floor_area = Utilities::MPI::sum(m.conformed_floor_area, comm);
+    }
+
     StrainHistogram make_histogram(const std::string &name, const std::vector<std::pair<double, double>> &samples,
                                    unsigned int bins, MPI_Comm comm)
     {
@@ -104,6 +130,7 @@ namespace nappe
 
     ConformationMeasures                                 m;
     std::vector<CellRecord>                              records;
+    std::vector<std::array<double, 3>>                   contact; ///< (s, conformed, dA) at every point
     std::vector<std::vector<std::pair<double, double>>> samples(histogrammed.size());
     for_each_cell(system, state, level, [&](const CellPoints &cp) {
       const auto &cell = cp.cell;
@@ -118,10 +145,12 @@ namespace nappe
           const double      g  = adhesion->gap(p.x, p.w);
           const double      dA = cp.weights[q];
           rec.area += dA;
-          if (adhesion->conformed(g))
+          const bool        conformed = adhesion->conformed(g);
+          if (conformed)
             m.conformed_area += dA;
           else
             rec.suspended_area += dA;
+          contact.push_back({adhesion->topography().height(p.x), conformed ? 1.0 : 0.0, dA});
           if (g > rec.max_gap || q == 0)
             {
               rec.max_gap          = g;
@@ -137,6 +166,7 @@ namespace nappe
     m.conformed_area    = Utilities::MPI::sum(m.conformed_area, comm);
     m.sheet_area        = Utilities::MPI::sum(m.sheet_area, comm);
     m.conformed_fraction = m.conformed_area / m.sheet_area;
+    split_floor_contact(contact, m, comm);
 
     const auto gathered = Utilities::MPI::gather(comm, records, 0);
     if (Utilities::MPI::this_mpi_process(comm) == 0)

@@ -8,9 +8,9 @@
 
 namespace nappe
 {
-  std::string verdict(const AdhesionPathPoint &state, double target)
+  std::string verdict(const AdhesionPath &path, const AdhesionPathPoint &state, double target)
   {
-    return regime_name(classify_regime(state.conformed_fraction, target));
+    return regime_name(classify_regime(path, state, target));
   }
 
   std::vector<double> verdict_work_of_adhesion_values(const FabricationCheckSettings &s)
@@ -65,6 +65,31 @@ namespace nappe
     }
   } // namespace
 
+  HeightBracket bracket_safe_height(const std::function<bool(double)> &safe, double start, unsigned int bisections)
+  {
+    HeightBracket b;
+    double        h = start;
+    for (unsigned int k = 0; k < 8 && !b.found(); ++k)
+      if (safe(h))
+        {
+          b.safe = h;
+          h *= 2;
+        }
+      else
+        {
+          b.unsafe = h;
+          h *= 0.5;
+        }
+    if (!b.found())
+      return b;
+    for (unsigned int k = 0; k < bisections; ++k)
+      {
+        const double mid = 0.5 * (b.safe + b.unsafe);
+        (safe(mid) ? b.safe : b.unsafe) = mid;
+      }
+    return b;
+  }
+
   void scan_aspect_ratio(FabricationCheck &check, const FabricationCheckSettings &s, const AdhesionPathSettings &path,
                          const std::function<SheetProblem(double)> &problem_with_height, MPI_Comm comm,
                          unsigned int bisections, std::ostream *log)
@@ -79,36 +104,14 @@ namespace nappe
              << (ok ? "safe" : "not safe") << "\n";
       return ok;
     };
-    double safe_h = 0.0, unsafe_h = 0.0;
-    double h = s.feature_height;
-    for (unsigned int k = 0; k < 8; ++k)
+    const HeightBracket b = bracket_safe_height(safe, s.feature_height, bisections);
+    if (!b.found())
       {
-        if (safe(h))
-          {
-            safe_h = h;
-            if (unsafe_h > 0)
-              break;
-            h *= 2;
-          }
-        else
-          {
-            unsafe_h = h;
-            if (safe_h > 0)
-              break;
-            h *= 0.5;
-          }
-      }
-    if (safe_h == 0.0 || unsafe_h == 0.0)
-      {
-        check.aspect_ratio_note = safe_h == 0.0 ? "no safe height found down to 1/256 of the case's height"
-                                                : "every height up to 256 times the case's height is safe";
+        check.aspect_ratio_note = b.safe == 0.0 ? "no safe height found down to 1/128 of the case's height"
+                                                : "every height up to 128 times the case's height is safe";
         return;
       }
-    for (unsigned int k = 0; k < bisections; ++k)
-      {
-        const double mid = 0.5 * (safe_h + unsafe_h);
-        (safe(mid) ? safe_h : unsafe_h) = mid;
-      }
+    const double safe_h = b.safe, unsafe_h = b.unsafe;
     check.largest_safe_aspect_ratio = safe_h / s.feature_width;
     std::ostringstream note;
     note << "bracketed between heights " << safe_h * 1e9 << " nm (safe) and " << unsafe_h * 1e9

@@ -6,13 +6,15 @@ namespace nappe
   namespace
   {
     const double suspended_below = 0.05; ///< contact share under which a sheet is "suspended" (our definition)
+    const double floor_untouched = 0.01; ///< share of the floor under which it counts as untouched (ours)
   } // namespace
 
   std::vector<std::string> summary_columns(const SheetModel &model)
   {
     std::vector<std::string> names;
     if (model.adhesion())
-      names = {"conformed_fraction", "max_gap_nm"};
+      names = {"conformed_fraction", "raised_contact_fraction", "floor_contact_fraction", "floor_touched",
+               "max_gap_nm"};
     for (const SheetQuantity *q : quantities_for(model))
       if (q->extreme != Extreme::none)
         names.push_back(q->extreme_key + q->unit_suffix());
@@ -23,7 +25,9 @@ namespace nappe
   {
     std::vector<double> values;
     if (conformation)
-      values = {conformation->conformed_fraction, conformation->max_gap / units::nanometer};
+      values = {conformation->conformed_fraction, conformation->raised_contact_fraction(),
+                conformation->floor_contact_fraction(), conformation->floor_touched(),
+                conformation->max_gap / units::nanometer};
     for (const auto &e : measures.extremes)
       values.push_back(e.extreme.value / e.quantity->si_per_unit);
     return values;
@@ -40,11 +44,23 @@ namespace nappe
     return m;
   }
 
-  Regime classify_regime(double fraction, double target)
+  Regime classify_regime(double fraction, double floor_touched, double target)
   {
     if (fraction >= target)
       return Regime::conforms;
-    return fraction >= suspended_below ? Regime::partially_conformed : Regime::suspended;
+    if (fraction < suspended_below)
+      return Regime::suspended;
+    return floor_touched < floor_untouched ? Regime::tents : Regime::touches_floor;
+  }
+
+  Regime classify_regime(const ConformationMeasures &m, double target)
+  {
+    return classify_regime(m.conformed_fraction, m.floor_touched(), target);
+  }
+
+  Regime classify_regime(const AdhesionPath &path, const AdhesionPathPoint &point, double target)
+  {
+    return classify_regime(point.conformed_fraction, path.value(point, "floor_touched"), target);
   }
 
   std::string regime_name(Regime regime)
@@ -52,7 +68,8 @@ namespace nappe
     switch (regime)
       {
         case Regime::conforms: return "conforms";
-        case Regime::partially_conformed: return "partially conformed";
+        case Regime::tents: return "tents on the tops";
+        case Regime::touches_floor: return "touches the floor";
         default: return "suspended";
       }
   }

@@ -89,4 +89,14 @@ namespace nappe
     return lattice_name + " array, a1 = (" + internal::nm(a1[0]) + ", " + internal::nm(a1[1]) + "), a2 = (" +
            internal::nm(a2[0]) + ", " + internal::nm(a2[1]) + ") of [" + feature->description() + "]";
   }
+  std::optional<TopographyLattice> LatticeArray::lattice() const
+  {
+    TopographyLattice l;
+    l.kind = lattice_name == "square"      ? TopographyLattice::Kind::square :
+             lattice_name == "hexagonal"   ? TopographyLattice::Kind::hexagonal :
+                                             TopographyLattice::Kind::oblique;
+    l.a1   = a1;
+    l.a2   = a2;
+    return l;
+  }
 } // namespace nappe

@@ -92,4 +92,11 @@ namespace nappe
     return "step along y at x = 0, height " + internal::nm(h) + ", edge radius " + internal::nm(r_edge) +
            ", sidewall angle " + internal::num(alpha * 180.0 / M_PI) + " deg";
   }
+
+  std::vector<TopographyFeature> Trench::features() const
+  {
+    return {{"edge radius", r_edge, 1.0}, {"trench width", w, 4.0}};
+  }
+
+  std::vector<TopographyFeature> Step::features() const { return {{"edge radius", r_edge, 1.0}}; }
 } // namespace nappe

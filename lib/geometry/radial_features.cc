@@ -190,4 +190,21 @@ namespace nappe
            internal::nm(w) + " at half height, edge radius " + internal::nm(r_edge) + ", sidewall angle " +
            internal::num(alpha * 180.0 / M_PI) + " deg";
   }
+
+  std::vector<TopographyFeature> GaussianBump::features() const { return {{"width sigma", sigma, 4.0}}; }
+
+  std::vector<TopographyFeature> Pillar::features() const
+  {
+    return {{"edge radius", r_edge, 1.0}, {"foot radius", r_foot, 1.0}};
+  }
+
+  std::vector<TopographyFeature> Cone::features() const
+  {
+    return {{"tip radius", r_tip, 1.0}, {"foot radius", r_foot, 1.0}};
+  }
+
+  std::vector<TopographyFeature> RingRidge::features() const
+  {
+    return {{"edge radius", r_edge, 1.0}, {"ridge width", w, 4.0}};
+  }
 } // namespace nappe

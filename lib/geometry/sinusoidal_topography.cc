@@ -68,4 +68,25 @@ namespace nappe
     return "egg carton A cos(kx) cos(ky), k = 2 pi / lambda, A = " + internal::nm(amplitude) +
            ", lambda = " + internal::nm(wavelength);
   }
+  std::optional<TopographyLattice> SinusoidalGrating::lattice() const
+  {
+    TopographyLattice l;
+    l.kind  = TopographyLattice::Kind::stripes;
+    l.a1[0] = wavelength;
+    l.a2[1] = 1.0;
+    return l;
+  }
+
+  std::optional<TopographyLattice> EggCarton::lattice() const
+  {
+    TopographyLattice l;
+    l.kind  = TopographyLattice::Kind::square;
+    l.a1[0] = wavelength;
+    l.a2[1] = wavelength;
+    return l;
+  }
+
+  std::vector<TopographyFeature> SinusoidalGrating::features() const { return {{"wavelength", wavelength, 8.0}}; }
+
+  std::vector<TopographyFeature> EggCarton::features() const { return {{"wavelength", wavelength, 8.0}}; }
 } // namespace nappe

@@ -185,4 +185,57 @@ namespace nappe
       d += (i == 0 ? " [" : " + [") + terms[i]->description() + "]";
     return d;
   }
+  std::optional<TopographyLattice> ScaledTopography::lattice() const
+  {
+    auto l = base->lattice();
+    if (l)
+      {
+        l->a1 *= lateral;
+        if (l->kind != TopographyLattice::Kind::stripes)
+          l->a2 *= lateral;
+      }
+    return l;
+  }
+
+  std::optional<TopographyLattice> RotatedTopography::lattice() const
+  {
+    auto l = base->lattice();
+    if (l)
+      {
+        const auto rotate = [&](const dealii::Tensor<1, 2> &v) {
+          return dealii::Tensor<1, 2>({c * v[0] - s * v[1], s * v[0] + c * v[1]});
+        };
+        l->a1 = rotate(l->a1);
+        l->a2 = rotate(l->a2);
+      }
+    return l;
+  }
+
+  std::optional<TopographyLattice> OffsetTopography::lattice() const { return base->lattice(); }
+
+  std::optional<TopographyLattice> PeriodicTiling::lattice() const
+  {
+    TopographyLattice l;
+    l.kind  = TopographyLattice::Kind::rectangular;
+    l.a1[0] = period[0];
+    l.a2[1] = period[1];
+    return l;
+  }
+
+  std::vector<TopographyFeature> ScaledTopography::features() const
+  {
+    auto f = base->features();
+    for (auto &feature : f)
+      feature.length *= lateral;
+    return f;
+  }
+
+  std::vector<TopographyFeature> SumTopography::features() const
+  {
+    std::vector<TopographyFeature> all;
+    for (const auto &t : terms)
+      for (const auto &f : t->features())
+        all.push_back(f);
+    return all;
+  }
 } // namespace nappe

@@ -95,9 +95,14 @@ namespace nappe
     prm.declare_entry("Length y", "1000", Patterns::Double(0), "Rectangle side along y [nm].");
     prm.declare_entry("Radius", "500", Patterns::Double(0), "Disk radius [nm].");
     prm.declare_entry("Periodic", "false", Patterns::Bool(), "Periodic unit cell (rectangle, rhombus or mesh file).");
+    prm.declare_entry("Periods per cell", "0", Patterns::Integer(0, 1000),
+                      "Periodic cells: 0 = take the cell from Shape and the lengths; n >= 1 = make the cell n periods "
+                      "of the topography's lattice along each direction (a rectangle n wavelengths long for a "
+                      "grating, keeping Length y; n x n periods for an egg carton or a square array; a rhombus of "
+                      "side n pitches for a hexagonal array), so that a sweep over a period stays right [-].");
     prm.declare_entry("Mesh file", "", Patterns::Anything(),
                       "Shape = mesh file: Gmsh .msh file (ASCII format 2.2 or 4.1, quadrilaterals), absolute or "
-                      "relative to the working directory of the run (not to the case file).");
+                      "relative to the case file's directory.");
     prm.declare_entry("Mesh scale", "1", Patterns::Double(0),
                       "Shape = mesh file: length of one mesh unit [nm]; coordinates in the file are multiplied by it.");
     prm.declare_entry("Coarse cells x", "1", Patterns::Integer(1, 64), "Coarse cells along x before refinement [-].");
@@ -154,8 +159,10 @@ namespace nappe
     prm.leave_subsection();
 
     prm.enter_subsection("Output");
-    prm.declare_entry("Directory", ".", Patterns::DirectoryName(), "Where results are written (must exist).");
-    prm.declare_entry("Base name", "sheet", Patterns::FileName(), "Prefix of the result files.");
+    prm.declare_entry("Directory", ".", Patterns::DirectoryName(),
+                      "Where results are written (must exist), relative to the case file's directory.");
+    prm.declare_entry("Base name", "", Patterns::FileName(),
+                      "Prefix of the result files; empty: the case file's name without its extension.");
     prm.declare_entry("Write fields", "true", Patterns::Bool(), "Write VTU/PVTU fields for ParaView.");
     prm.leave_subsection();
   }

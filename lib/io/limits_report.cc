@@ -1,8 +1,10 @@
 #include <nappe/base/units.h>
 #include <nappe/base/version.h>
 #include <nappe/io/atomic_file.h>
+#include <nappe/io/caution.h>
 #include <nappe/io/json_writer.h>
 #include <nappe/io/limits_report.h>
+#include <nappe/physics/adhesion_potential.h>
 
 #include <iomanip>
 #include <sstream>
@@ -11,8 +13,12 @@ namespace nappe
 {
   namespace
   {
-    const char *caution = "Model estimates: confirm by measurement before fabrication decisions; lab work follows "
-                          "local safety rules and the institution's practice.";
+    const AdhesionPotential &adhesion_of(const SheetCase &c) { return *c.problem.model.adhesion(); }
+
+    double peak_strain(const AdhesionPath &path, const AdhesionPathPoint &p)
+    {
+      return path.value(p, "max_principal_strain");
+    }
 
     void write_threshold(JsonWriter &json, const std::string &key, const std::string &meaning,
                          const AdhesionThreshold &t)
@@ -45,7 +51,7 @@ namespace nappe
       json.end_object();
     }
 
-    void write_check(JsonWriter &json, const FabricationCheck &check, double target)
+    void write_check(JsonWriter &json, const AdhesionLimits &limits, const FabricationCheck &check, double target)
     {
       json.begin_object("fabrication_check");
       json.quantity("fracture_strain", check.fracture_strain, "1");
@@ -54,12 +60,12 @@ namespace nappe
         {
           json.begin_object();
           json.quantity("work_of_adhesion", r.work_of_adhesion, "J/m^2");
-          json.value("laid_down_verdict", verdict(r.transferred, target));
+          json.value("laid_down_verdict", verdict(limits.raising, r.transferred, target));
           json.quantity("laid_down_conformed_fraction", r.transferred.conformed_fraction, "1");
-          json.quantity("laid_down_peak_principal_strain", r.transferred.peak_principal_strain, "1");
-          json.value("conformed_start_verdict", verdict(r.grown, target));
+          json.quantity("laid_down_peak_principal_strain", peak_strain(limits.raising, r.transferred), "1");
+          json.value("conformed_start_verdict", verdict(limits.lowering, r.grown, target));
           json.quantity("conformed_start_conformed_fraction", r.grown.conformed_fraction, "1");
-          json.quantity("conformed_start_peak_principal_strain", r.grown.peak_principal_strain, "1");
+          json.quantity("conformed_start_peak_principal_strain", peak_strain(limits.lowering, r.grown), "1");
           if (r.margin)
             json.quantity("margin_gamma_over_gamma_hold", *r.margin, "1");
           json.end_object();
@@ -86,16 +92,20 @@ namespace nappe
   void write_adhesion_paths_csv(const std::string &path, const AdhesionLimits &limits)
   {
     write_atomically(path, [&](std::ostream &out) {
-      out << "path,gamma_J_per_m2,conformed_fraction,energy_J_per_m2,stretching_J_per_m2,bending_J_per_m2,"
-             "adhesion_J_per_m2,peak_principal_strain,max_areal_strain,max_shear_strain,max_gap_nm,after_jump\n"
-          << std::setprecision(10);
+      out << "path,gamma_J_per_m2,energy_J_per_m2,stretching_J_per_m2,bending_J_per_m2,adhesion_J_per_m2";
+      for (const auto &name : limits.lowering.value_names)
+        out << "," << name;
+      out << ",after_jump\n" << std::setprecision(10);
       for (const auto *p : {&limits.lowering, &limits.raising})
         for (const auto &pt : p->points)
-          out << (p->lowering ? "down" : "up") << "," << pt.work_of_adhesion << "," << pt.conformed_fraction << ","
-              << pt.energy_per_area.total() << "," << pt.energy_per_area.stretching << ","
-              << pt.energy_per_area.bending << "," << pt.energy_per_area.substrate << "," << pt.peak_principal_strain
-              << "," << pt.max_areal_strain << "," << pt.max_shear_strain << "," << pt.max_gap * 1e9 << ","
-              << (pt.after_jump ? 1 : 0) << "\n";
+          {
+            out << (p->lowering ? "down" : "up") << "," << pt.work_of_adhesion << "," << pt.energy_per_area.total()
+                << "," << pt.energy_per_area.stretching << "," << pt.energy_per_area.bending << ","
+                << pt.energy_per_area.substrate;
+            for (const double v : pt.values)
+              out << "," << v;
+            out << "," << (pt.after_jump ? 1 : 0) << "\n";
+          }
     });
   }
 
@@ -107,12 +117,12 @@ namespace nappe
       json.begin_object();
       json.value("program", "nappe " + version());
       json.value("case", c.title);
-      json.value("note", caution);
-      json.value("material", c.model.material.name);
-      json.value("topography", c.adhesion->topography().description());
-      json.value("adhesion_law", c.adhesion->law().name());
-      json.quantity("case_work_of_adhesion", c.adhesion->law().work_of_adhesion(), "J/m^2");
-      json.quantity("equilibrium_gap", c.adhesion->law().equilibrium_gap() * 1e9, "nm");
+      json.value("note", model_caution());
+      json.value("material", c.problem.model.material.name);
+      json.value("topography", adhesion_of(c).topography().description());
+      json.value("adhesion_law", adhesion_of(c).law().name());
+      json.quantity("case_work_of_adhesion", adhesion_of(c).law().work_of_adhesion(), "J/m^2");
+      json.quantity("equilibrium_gap", adhesion_of(c).law().equilibrium_gap() * 1e9, "nm");
       json.quantity("lowest_work_of_adhesion", c.limits.lowest_work_of_adhesion, "J/m^2");
       json.quantity("highest_work_of_adhesion", c.limits.highest_work_of_adhesion, "J/m^2");
       json.quantity("target_conformed_fraction", c.limits.target_fraction, "1");
@@ -126,19 +136,19 @@ namespace nappe
       if (limits.hold.found && limits.snap.found)
         json.quantity("hysteresis", limits.snap.value() - limits.hold.value(), "J/m^2");
       if (limits.hold.found)
-        json.quantity("margin_case_gamma_over_gamma_hold", c.adhesion->law().work_of_adhesion() / limits.hold.value(),
-                      "1");
+        json.quantity("margin_case_gamma_over_gamma_hold",
+                      adhesion_of(c).law().work_of_adhesion() / limits.hold.value(), "1");
       write_path_statistics(json, "lowering_path", limits.lowering);
       write_path_statistics(json, "raising_path", limits.raising);
       if (check)
-        write_check(json, *check, c.limits.target_fraction);
+        write_check(json, limits, *check, c.limits.target_fraction);
       json.end_object();
     });
   }
 
   void print_limits_summary(const SheetCase &c, const AdhesionLimits &limits, std::ostream &out)
   {
-    const double gamma = c.adhesion->law().work_of_adhesion();
+    const double gamma = adhesion_of(c).law().work_of_adhesion();
     out << "\n== " << c.title << " ==\n" << std::setprecision(4);
     out << "Works of adhesion (range " << c.limits.lowest_work_of_adhesion << " to " << c.limits.highest_work_of_adhesion
         << " J/m², conformed = fraction ≥ " << 100 * c.limits.target_fraction << " %):\n";
@@ -158,21 +168,22 @@ namespace nappe
       }
   }
 
-  void print_fabrication_check(const SheetCase &c, const FabricationCheck &check, std::ostream &out)
+  void print_fabrication_check(const SheetCase &c, const AdhesionLimits &limits, const FabricationCheck &check,
+                               std::ostream &out)
   {
-    const double target = c.limits.target_fraction;
-    out << "\nFabrication check: " << c.model.material.name << " on " << c.adhesion->topography().description()
-        << "\n";
+    const double  target = c.limits.target_fraction;
+    const auto   &name   = c.problem.model.material.name;
+    out << "\nFabrication check: " << name << " on " << adhesion_of(c).topography().description() << "\n";
     out << "  Γ [J/m²] | laid down (transfer)             | starting conformed               | Γ/Γ_hold\n"
         << std::fixed;
     for (const auto &r : check.rows)
       {
         out << "  " << std::setw(8) << std::setprecision(3) << r.work_of_adhesion << " | " << std::setw(19)
-            << verdict(r.transferred, target) << " " << std::setw(5) << std::setprecision(1)
+            << verdict(limits.raising, r.transferred, target) << " " << std::setw(5) << std::setprecision(1)
             << 100 * r.transferred.conformed_fraction << " % " << std::setw(5) << std::setprecision(2)
-            << 100 * r.transferred.peak_principal_strain << " % | " << std::setw(19) << verdict(r.grown, target) << " "
+            << 100 * peak_strain(limits.raising, r.transferred) << " % | " << std::setw(19) << verdict(limits.lowering, r.grown, target) << " "
             << std::setw(5) << std::setprecision(1) << 100 * r.grown.conformed_fraction << " % " << std::setw(5)
-            << std::setprecision(2) << 100 * r.grown.peak_principal_strain << " % | ";
+            << std::setprecision(2) << 100 * peak_strain(limits.lowering, r.grown) << " % | ";
         if (r.margin)
           out << std::setprecision(2) << *r.margin;
         else
@@ -181,14 +192,14 @@ namespace nappe
       }
     out << "  (each state: verdict, conformed fraction, peak principal strain)\n" << std::defaultfloat;
     if (check.fracture_strain > 0)
-      out << "  Fracture strain of " << c.model.material.name << ": " << 100 * check.fracture_strain << " %\n";
+      out << "  Fracture strain of " << name << ": " << 100 * check.fracture_strain << " %\n";
     else
-      out << "  Fracture strain of " << c.model.material.name << ": unknown (not in the catalogue)\n";
+      out << "  Fracture strain of " << name << ": unknown (not in the catalogue)\n";
     if (check.largest_safe_aspect_ratio)
       out << "  Largest safe aspect ratio (height/width): " << std::setprecision(3) << *check.largest_safe_aspect_ratio
           << " (" << check.aspect_ratio_note << ")\n";
     else if (!check.aspect_ratio_note.empty())
       out << "  Largest safe aspect ratio: not found (" << check.aspect_ratio_note << ")\n";
-    out << "  " << caution << "\n";
+    out << "  " << model_caution() << "\n";
   }
 } // namespace nappe

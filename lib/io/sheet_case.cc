@@ -1,10 +1,14 @@
 #include <deal.II/base/utilities.h>
 
 #include <nappe/base/units.h>
-#include <nappe/io/sheet_case.h>
 #include <nappe/geometry/topography_factory.h>
+#include <nappe/geometry/topography_periodicity.h>
+#include <nappe/io/sheet_case.h>
 #include <nappe/physics/adhesion_law_factory.h>
+#include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/material_catalogue.h>
+
+#include <algorithm>
 
 namespace nappe
 {
@@ -41,7 +45,13 @@ namespace nappe
       bad_edges(text, "unknown deflection condition '" + s + "'");
     }
 
-    std::vector<types::boundary_id> all_ids(const SheetDomain &d) { return d.boundary_ids(); }
+    std::string id_list(const std::vector<types::boundary_id> &ids)
+    {
+      std::string text;
+      for (const auto id : ids)
+        text += (text.empty() ? "" : ", ") + std::to_string(id);
+      return text;
+    }
 
     AdhesionPathSettings parse_limit_parameters(ParameterHandler &prm)
     {
@@ -138,19 +148,25 @@ namespace nappe
           edge.in_plane = InPlaneCondition::fixed;
         else if (parts[1] != "free")
           bad_edges(text, "unknown in-plane condition '" + parts[1] + "'");
-        std::vector<types::boundary_id> ids;
+        const std::vector<types::boundary_id> existing = domain.boundary_ids();
+        std::vector<types::boundary_id>       ids;
         if (id_text == "all")
-          ids = all_ids(domain);
+          ids = existing;
         else
           {
+            int id = -1;
             try
               {
-                ids.push_back(Utilities::string_to_int(id_text));
+                id = Utilities::string_to_int(id_text);
               }
             catch (...)
               {
                 bad_edges(text, "'" + id_text + "' is not a boundary id");
               }
+            if (std::find(existing.begin(), existing.end(), id) == existing.end())
+              bad_edges(text, "this domain has no edge with id " + id_text + " (its edge ids: " +
+                                (existing.empty() ? std::string("none, it is periodic") : id_list(existing)) + ")");
+            ids.push_back(id);
           }
         for (const auto id : ids)
           edges[id] = edge;
@@ -178,10 +194,11 @@ namespace nappe
       prm.leave_subsection();
     }
 
-    SheetDomain parse_domain(ParameterHandler &prm)
+    SheetDomain parse_domain(ParameterHandler &prm, unsigned int &periods_per_cell)
     {
       SheetDomain d;
       prm.enter_subsection("Domain");
+      periods_per_cell     = prm.get_integer("Periods per cell");
       d.shape              = SheetDomain::parse_shape(prm.get("Shape"));
       d.length_x           = prm.get_double("Length x") * units::nanometer;
       d.length_y           = prm.get_double("Length y") * units::nanometer;
@@ -215,7 +232,31 @@ namespace nappe
       prm.leave_subsection();
     }
 
-    void parse_substrate(ParameterHandler &prm, SheetProblem &p)
+    /// The periodic cell made @p n periods of the topography's lattice (Domain/Periods per cell).
+    void fit_cell_to_topography(SheetDomain &d, const Topography &t, unsigned int n)
+    {
+      const auto l = t.lattice();
+      AssertThrow(d.periodic, ExcMessage("Domain/Periods per cell = " + std::to_string(n) +
+                                         " needs a periodic cell (Domain/Periodic = true)."));
+      AssertThrow(l && l->kind != TopographyLattice::Kind::oblique,
+                  ExcMessage("Domain/Periods per cell: the topography (" + t.description() +
+                             ") has no square, hexagonal, rectangular or stripe lattice to fit the cell to; set the "
+                             "cell's lengths instead."));
+      AssertThrow(std::abs(l->a1[1]) <= 1e-9 * l->a1.norm() && l->a1[0] > 0,
+                  ExcMessage("Domain/Periods per cell: the topography's first period must lie along +x (no rotation); "
+                             "set the cell's lengths instead."));
+      d.length_x = n * l->a1[0];
+      switch (l->kind)
+        {
+          case TopographyLattice::Kind::stripes: d.shape = SheetDomain::Shape::rectangle; break;
+          case TopographyLattice::Kind::hexagonal: d.shape = SheetDomain::Shape::rhombus; break;
+          default:
+            d.shape    = SheetDomain::Shape::rectangle;
+            d.length_y = n * l->a2.norm();
+        }
+    }
+
+    void parse_substrate(ParameterHandler &prm, SheetProblem &p, unsigned int periods_per_cell)
     {
       prm.enter_subsection("Substrate");
       const bool with_substrate = prm.get_bool("Enabled");
@@ -225,10 +266,25 @@ namespace nappe
       prm.leave_subsection();
       if (with_substrate)
         {
-          std::shared_ptr<const AdhesionLaw> law = parse_adhesion_parameters(prm);
-          p.model.substrate =
-            std::make_shared<AdhesionPotential>(TopographyFactory::parse_parameters(prm), law, gap_measure);
+          std::shared_ptr<const AdhesionLaw> law        = parse_adhesion_parameters(prm);
+          const auto                         topography = TopographyFactory::parse_parameters(prm);
+          if (periods_per_cell > 0)
+            fit_cell_to_topography(p.domain, *topography, periods_per_cell);
+          if (p.domain.periodic)
+            {
+              const auto [a1, a2]   = p.domain.lattice_vectors();
+              const std::string why = periodicity_mismatch(*topography, p.domain.bounding_box().first, a1, a2);
+              AssertThrow(why.empty(),
+                          ExcMessage("Topography is not periodic on the cell (Domain/Length x = " +
+                                     std::to_string(p.domain.length_x * 1e9) + " nm, Length y = " +
+                                     std::to_string(p.domain.length_y * 1e9) + " nm): " + why +
+                                     ". Make the cell a whole number of periods, or set Domain/Periods per cell."));
+            }
+          p.model.substrate = std::make_shared<AdhesionPotential>(topography, law, gap_measure);
         }
+      else
+        AssertThrow(periods_per_cell == 0, ExcMessage("Domain/Periods per cell needs a substrate topography "
+                                                      "(Substrate/Enabled = true)."));
     }
 
     void parse_solver(ParameterHandler &prm, SheetProblem &p)
@@ -250,7 +306,7 @@ namespace nappe
       OutputSettings o;
       prm.enter_subsection("Output");
       o.directory    = prm.get("Directory");
-      o.base_name    = prm.get("Base name");
+      o.base_name    = prm.get("Base name").empty() ? "sheet" : prm.get("Base name");
       o.write_fields = prm.get_bool("Write fields");
       prm.leave_subsection();
       return o;
@@ -265,12 +321,13 @@ namespace nappe
     prm.leave_subsection();
     SheetProblem &p = c.problem;
     parse_sheet(prm, p.model);
-    p.domain = parse_domain(prm);
+    unsigned int periods_per_cell = 0;
+    p.domain                      = parse_domain(prm, periods_per_cell);
     prm.enter_subsection("Edges");
     p.model.edges = parse_edge_conditions(prm.get("Conditions"), p.domain);
     prm.leave_subsection();
     parse_loads(prm, p.model.loads);
-    parse_substrate(prm, p);
+    parse_substrate(prm, p, periods_per_cell);
     c.limits      = parse_limit_parameters(prm);
     c.fabrication = parse_fabrication_parameters(prm);
     parse_solver(prm, p);

@@ -1,6 +1,5 @@
 #include <deal.II/base/exceptions.h>
 
-#include <nappe/base/units.h>
 #include <nappe/physics/adhesion_potential.h>
 
 #include <cmath>
@@ -47,19 +46,5 @@ namespace nappe
     psi       = phi;
     dpsi_dw   = dphi * c;
     d2psi_dw2 = d2phi * c * c;
-  }
-
-  std::vector<std::string> AdhesionPotential::field_names() const
-  {
-    return {"gap_nm", "substrate_height_nm", "adhesion_traction_MPa", "conformed"};
-  }
-
-  void AdhesionPotential::fields(const dealii::Point<2> &x, double w, std::vector<double> &values) const
-  {
-    double psi, dpsi, d2psi;
-    evaluate(x, w, psi, dpsi, d2psi);
-    const double g = gap(x, w);
-    values         = {g / units::nanometer, topography_->height(x) / units::nanometer, dpsi / units::megapascal,
-                      conformed(g) ? 1.0 : 0.0};
   }
 } // namespace nappe

@@ -25,7 +25,7 @@ execute_process(COMMAND ${SWEEP} ${WORK}/resumed.prm --no-plots OUTPUT_VARIABLE 
 if(NOT rc EQUAL 0 OR NOT out MATCHES "1 kept from an earlier run")
   message(FATAL_ERROR "resumed sweep failed (${rc}) or recomputed the kept point:\n${out}")
 endif()
-foreach(f sweep.csv points/point-0001.csv points/point-0002.csv points/point-0003.csv)
+foreach(f sweep.csv points/point-0001.rec points/point-0002.rec points/point-0003.rec)
   execute_process(COMMAND ${CMAKE_COMMAND} -E compare_files ${WORK}/whole/${f} ${WORK}/resumed/${f} RESULT_VARIABLE diff)
   if(NOT diff EQUAL 0)
     message(FATAL_ERROR "${f} differs between the uninterrupted and the resumed sweep")

@@ -1,7 +1,9 @@
 #pragma once
 
 // Test helper: solve a sheet model on a domain to a certified minimum in one call.
+#include <nappe/analysis/sheet_result.h>
 #include <nappe/solvers/energy_minimizer.h>
+#include <nappe/solvers/sheet_problem.h>
 #include <nappe/solvers/sheet_system.h>
 
 #include <gtest/gtest.h>
@@ -36,5 +38,12 @@ namespace nappe::test_support
     out.state = out.system->make_ghosted_vector();
     out.state = owned;
     return out;
+  }
+
+  /// Solves a problem along its load path and measures the result (nothing is written).
+  inline SheetResult solve_and_measure(const SheetProblem &problem, MPI_Comm comm = MPI_COMM_WORLD,
+                                       std::ostream *log = nullptr)
+  {
+    return analyse_solution(solve_sheet_problem(problem, comm, log), problem);
   }
 } // namespace nappe::test_support

@@ -1,5 +1,5 @@
 // The conformation analysis of a laid-down case does not depend on the number of MPI ranks: a MoS2
-// sheet pulled onto a square pillar array, run by run_sheet_case on rank 0 alone (MPI_COMM_SELF
+// sheet pulled onto a square pillar array, solved and measured on rank 0 alone (MPI_COMM_SELF
 // obtained by MPI_Comm_split) and on all ranks, gives the same energies, conformed fraction,
 // number of suspended regions and peak principal strain up to round-off (relative 1e-8, as in
 // rank_independence_test.cc). Run on 2 ranks.
@@ -7,8 +7,9 @@
 
 #include <nappe/geometry/lattice_array.h>
 #include <nappe/geometry/radial_features.h>
-#include <nappe/io/sheet_run.h>
 #include <nappe/physics/vdw_93_law.h>
+
+#include <common/sheet_solve.h>
 
 #include <gtest/gtest.h>
 
@@ -44,10 +45,9 @@ namespace
                                                            "suspended regions",  "peak principal strain"};
   using Outputs = std::array<double, n_outputs>;
 
-  SheetCase pillar_case(const std::string &name)
+  SheetProblem pillar_case()
   {
-    SheetCase c;
-    c.title                            = "MoS2 on pillars (" + name + ")";
+    SheetProblem c;
     c.model.material.youngs_modulus_2d = 180;                    // MoS2, share/materials.prm
     c.model.material.poisson_ratio     = 0.29;                   // share/materials.prm
     c.model.material.bending_rigidity  = 9.61 * 1.602176634e-19; // 9.61 eV, share/materials.prm
@@ -57,20 +57,17 @@ namespace
     c.domain.global_refinements                       = 2; // 16 × 16 Q2 cells
     c.domain.periodic                                 = true;
     auto pillar = std::make_shared<Pillar>(6 * nm, 10 * nm, 3 * nm, 3 * nm, 70.0 * M_PI / 180.0);
-    c.adhesion  = std::make_shared<AdhesionPotential>(LatticeArray::square(pillar, pitch),
+    c.model.substrate = std::make_shared<AdhesionPotential>(LatticeArray::square(pillar, pitch),
                                                      std::make_shared<Vdw93Law>(0.22, 0.5 * nm), GapMeasure::normal);
-    c.model.substrate     = c.adhesion;
-    c.protocol            = Protocol::laid_down;
+    c.start               = StartProtocol::laid_down;
     c.stepping.load_steps = 1;
-    c.output_name         = "conformation_rank_" + name;
-    c.write_fields        = false;
     return c;
   }
 
   Outputs solve(const std::string &name, MPI_Comm comm)
   {
     const bool           log = std::getenv("NAPPE_TEST_LOG") && dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const SheetRunResult r   = run_sheet_case(pillar_case(name), comm, log ? &std::cout : nullptr);
+    const SheetResult r = test_support::solve_and_measure(pillar_case(), comm, log ? &std::cout : nullptr);
     EXPECT_TRUE(r.converged) << name << ": " << r.message;
     Outputs out{};
     if (!r.converged)
@@ -81,7 +78,7 @@ namespace
     out[substrate]          = r.energy.substrate;
     out[conformed_fraction] = r.conformation->conformed_fraction;
     out[suspended_regions]  = r.conformation->suspended_regions.size();
-    out[peak_strain]        = r.measures.max_principal_strain.value;
+    out[peak_strain]        = r.measures.at("max_principal_strain").value;
     return out;
   }
 } // namespace

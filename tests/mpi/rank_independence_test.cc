@@ -8,6 +8,8 @@
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/sheet_system.h>
 
+#include <common/test_substrates.h>
+
 #include <gtest/gtest.h>
 
 #include <mpi.h>
@@ -21,37 +23,10 @@
 #include <string>
 
 using namespace nappe;
+using test_support::SpringToTopography;
 
 namespace
 {
-  /// ψ(x, w) = k·d²/2 + c·d⁴ with d = w − s(x), s(x) = s0·sin(2πb1·x)·cos(2πb2·x) for the cell's
-  /// reciprocal vectors b_i [J/m²]: a nonlinear spring to a corrugated substrate.
-  class SpringToTopography : public SurfacePotential
-  {
-  public:
-    SpringToTopography(const SheetDomain &domain, double k, double c, double s0) : k_(k), c_(c), s0_(s0)
-    {
-      const auto [a1, a2] = domain.lattice_vectors();
-      const double det    = a1[0] * a2[1] - a1[1] * a2[0];
-      b1_[0]              = a2[1] / det;
-      b1_[1]              = -a2[0] / det;
-      b2_[0]              = -a1[1] / det;
-      b2_[1]              = a1[0] / det;
-    }
-    void evaluate(const dealii::Point<2> &x, double w, double &psi, double &dpsi_dw,
-                  double &d2psi_dw2) const override
-    {
-      const double d = w - s0_ * std::sin(2.0 * M_PI * (b1_ * x)) * std::cos(2.0 * M_PI * (b2_ * x));
-      psi            = 0.5 * k_ * d * d + c_ * d * d * d * d;
-      dpsi_dw        = k_ * d + 4.0 * c_ * d * d * d;
-      d2psi_dw2      = k_ + 12.0 * c_ * d * d;
-    }
-
-  private:
-    double                 k_, c_, s0_;
-    dealii::Tensor<1, 2>   b1_, b2_;
-  };
-
   /// The scalar outputs compared between rank counts.
   enum Output
   {

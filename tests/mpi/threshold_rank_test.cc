@@ -7,7 +7,6 @@
 
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/io/sheet_case.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
 
@@ -23,29 +22,34 @@ using namespace nappe;
 namespace
 {
   /// Graphene held on a grating of period 40 nm and amplitude 2 nm (our own scenario), Q2, 64 cells.
-  SheetCase held_grating()
+  SheetProblem held_grating()
   {
-    SheetCase c;
+    SheetProblem c;
     c.model.material            = MaterialCatalogue().material("graphene");
     c.domain.length_x           = 40e-9;
     c.domain.length_y           = 2.5e-9;
     c.domain.coarse_cells_x     = 16;
     c.domain.global_refinements = 2;
     c.domain.periodic           = true;
-    c.adhesion = std::make_shared<AdhesionPotential>(std::make_shared<SinusoidalGrating>(2e-9, 40e-9),
-                                                     std::make_shared<Vdw93Law>(0.45, 0.5e-9), GapMeasure::normal);
-    c.model.substrate                 = c.adhesion;
-    c.stepping.load_steps             = 1;
-    c.limits.lowest_work_of_adhesion  = 0.05;
-    c.limits.highest_work_of_adhesion = 1.0;
+    c.model.substrate     = std::make_shared<AdhesionPotential>(std::make_shared<SinusoidalGrating>(2e-9, 40e-9),
+                                                            std::make_shared<Vdw93Law>(0.45, 0.5e-9),
+                                                            GapMeasure::normal);
+    c.stepping.load_steps = 1;
     return c;
+  }
+
+  AdhesionPathSettings threshold_range()
+  {
+    AdhesionPathSettings s;
+    s.lowest_work_of_adhesion  = 0.05;
+    s.highest_work_of_adhesion = 1.0;
+    return s;
   }
 
   /// hold, eq, snap midpoints and the number of states on each path.
   std::array<double, 5> thresholds(MPI_Comm comm)
   {
-    const SheetCase      c = held_grating();
-    const AdhesionLimits l = find_adhesion_limits(c, c.limits, comm);
+    const AdhesionLimits l = find_adhesion_limits(held_grating(), threshold_range(), comm);
     EXPECT_TRUE(l.hold.found && l.equal_energy.found && l.snap.found);
     return {l.hold.value(), l.equal_energy.value(), l.snap.value(), double(l.lowering.points.size()),
             double(l.raising.points.size())};
@@ -64,7 +68,7 @@ TEST(ThresholdRankIndependence, HeldGrating)
   MPI_Bcast(serial.data(), serial.size(), MPI_DOUBLE, 0, MPI_COMM_WORLD);
   MPI_Comm_free(&self);
   const std::array<double, 5> parallel = thresholds(MPI_COMM_WORLD);
-  const double                tolerance = held_grating().limits.relative_tolerance;
+  const double                tolerance = threshold_range().relative_tolerance;
   for (unsigned int k = 0; k < 3; ++k)
     EXPECT_LE(std::abs(std::log(parallel[k] / serial[k])), tolerance)
       << "threshold " << k << ": 1 rank " << serial[k] << " J/m², all ranks " << parallel[k] << " J/m²";

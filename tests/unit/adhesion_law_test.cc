@@ -361,3 +361,23 @@ TEST(AdhesionLawFactory, AcceptsAUserRegisteredLaw)
   const auto law = parse("subsection Adhesion\n  set Law = test-scaled-9-3\nend\n");
   EXPECT_DOUBLE_EQ(law->work_of_adhesion(), 0.45);
 }
+
+// The Γ-linearity contract of AdhesionLaw (adhesion_law.h): at fixed shape, φ_{cΓ}(g) = c·φ_Γ(g), and
+// so for its derivatives; continuation in Γ scales the substrate potential by c on this ground. Checked
+// for every registered law at gaps through penetration, the well and the tail, to round-off.
+TEST(AdhesionLawContract, EveryRegisteredLawIsLinearInTheWorkOfAdhesionAtFixedShape)
+{
+  for (const std::string &name : adhesion_law_names())
+    for (const double c : {0.01, 0.37, 3.0})
+      {
+        const auto base   = create_adhesion_law(name, Gamma, h0);
+        const auto scaled = create_adhesion_law(name, c * Gamma, h0);
+        for (const double g : {-0.3e-9, 0.0, 0.3e-9, h0, 0.8e-9, 1.5e-9, 4e-9})
+          {
+            const Values a = evaluate(*base, g), b = evaluate(*scaled, g);
+            EXPECT_NEAR(b.phi, c * a.phi, 1e-12 * std::abs(c * a.phi) + 1e-300) << name << " g = " << g;
+            EXPECT_NEAR(b.dphi, c * a.dphi, 1e-12 * std::abs(c * a.dphi) + 1e-300) << name << " g = " << g;
+            EXPECT_NEAR(b.d2phi, c * a.d2phi, 1e-12 * std::abs(c * a.d2phi) + 1e-300) << name << " g = " << g;
+          }
+      }
+}

@@ -12,9 +12,10 @@
 #include <nappe/geometry/lattice_array.h>
 #include <nappe/geometry/radial_features.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/io/sheet_run.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
+
+#include <common/sheet_solve.h>
 
 #include <gtest/gtest.h>
 
@@ -32,35 +33,39 @@ namespace
 
   bool logging() { return std::getenv("NAPPE_TEST_LOG") && dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0; }
 
-  SheetCase periodic_case(const std::string &material, const std::string &substrate, std::shared_ptr<const Topography> t,
-                          double period, unsigned int cells, Protocol protocol, double h0)
+  struct Case
+  {
+    std::string  title;
+    SheetProblem problem;
+  };
+
+  Case periodic_case(const std::string &material, const std::string &substrate, std::shared_ptr<const Topography> t,
+                     double period, unsigned int cells, StartProtocol protocol, double h0)
   {
     const MaterialCatalogue catalogue;
-    SheetCase               c;
-    c.title          = material + " on " + t->description();
+    Case                    k;
+    k.title         = material + " on " + t->description();
+    SheetProblem &c = k.problem;
     c.model.material = catalogue.material(material);
     c.domain.length_x = c.domain.length_y = period;
     c.domain.coarse_cells_x = c.domain.coarse_cells_y = cells / 4;
     c.domain.global_refinements                       = 2;
     c.domain.periodic                                 = true;
-    c.adhesion = std::make_shared<AdhesionPotential>(
+    c.model.substrate = std::make_shared<AdhesionPotential>(
       std::move(t), std::make_shared<Vdw93Law>(catalogue.work_of_adhesion(material, substrate), h0), GapMeasure::normal);
-    c.model.substrate     = c.adhesion;
-    c.protocol            = protocol;
+    c.start               = protocol;
     c.stepping.load_steps = 1; // no loads: the substrate is not scaled by λ
-    c.output_name         = "adhesion_sanity";
-    c.write_fields        = false;
-    return c;
+    return k;
   }
 
-  SheetRunResult run(const SheetCase &c)
+  SheetResult run(const Case &c)
   {
-    const SheetRunResult r = run_sheet_case(c, MPI_COMM_WORLD, logging() ? &std::cout : nullptr);
+    const SheetResult r = test_support::solve_and_measure(c.problem, MPI_COMM_WORLD, logging() ? &std::cout : nullptr);
     EXPECT_TRUE(r.converged) << c.title << ": " << r.message;
     if (r.converged && logging())
       std::cout << "    " << c.title << ": conformed fraction " << std::setprecision(6)
                 << r.conformation->conformed_fraction << ", peak principal strain "
-                << r.measures.max_principal_strain.value << ", max gap " << r.conformation->max_gap / nm << " nm, "
+                << r.measures.at("max_principal_strain").value << ", max gap " << r.conformation->max_gap / nm << " nm, "
                 << r.conformation->suspended_regions.size() << " suspended regions, " << r.path.wall_time << " s\n";
     return r;
   }
@@ -71,11 +76,11 @@ namespace
 TEST(AdhesionSanity, GrapheneOnStrongCorrugationStrainsAFewPercent)
 {
   const double   lambda = 20 * nm;
-  SheetCase      c = periodic_case("graphene", "SiO2", std::make_shared<EggCarton>(2 * nm, lambda), lambda, 16,
-                              Protocol::grown_conformal, 0.6 * nm);
-  const SheetRunResult r = run(c);
+  const Case     c = periodic_case("graphene", "SiO2", std::make_shared<EggCarton>(2 * nm, lambda), lambda, 16,
+                              StartProtocol::grown_conformal, 0.6 * nm);
+  const SheetResult r = run(c);
   ASSERT_TRUE(r.converged);
-  const double peak = r.measures.max_principal_strain.value;
+  const double peak = r.measures.at("max_principal_strain").value;
   EXPECT_GT(peak, 1e-3);
   EXPECT_LT(peak, 0.1);
 }
@@ -86,8 +91,8 @@ TEST(AdhesionSanity, MoS2OnTallSparsePillarsTents)
 {
   auto pillar = std::make_shared<Pillar>(10 * nm, 10 * nm, 3 * nm, 3 * nm, 70.0 * M_PI / 180.0);
   const double   pitch = 100 * nm;
-  SheetCase c = periodic_case("MoS2", "SiO2", LatticeArray::square(pillar, pitch), pitch, 32, Protocol::laid_down, 0.5 * nm);
-  const SheetRunResult r = run(c);
+  const Case c = periodic_case("MoS2", "SiO2", LatticeArray::square(pillar, pitch), pitch, 32, StartProtocol::laid_down, 0.5 * nm);
+  const SheetResult r = run(c);
   ASSERT_TRUE(r.converged);
   EXPECT_LT(r.conformation->conformed_fraction, 0.8);
   EXPECT_GE(r.conformation->suspended_regions.size(), 1u);
@@ -97,9 +102,9 @@ TEST(AdhesionSanity, MoS2OnTallSparsePillarsTents)
 TEST(AdhesionSanity, MoS2OnGentleSinusoidConforms)
 {
   const double   lambda = 50 * nm;
-  SheetCase c = periodic_case("MoS2", "SiO2", std::make_shared<SinusoidalGrating>(0.5 * nm, lambda), lambda, 16,
-                              Protocol::laid_down, 0.5 * nm);
-  const SheetRunResult r = run(c);
+  const Case c = periodic_case("MoS2", "SiO2", std::make_shared<SinusoidalGrating>(0.5 * nm, lambda), lambda, 16,
+                              StartProtocol::laid_down, 0.5 * nm);
+  const SheetResult r = run(c);
   ASSERT_TRUE(r.converged);
   EXPECT_GE(r.conformation->conformed_fraction, 0.99);
 }

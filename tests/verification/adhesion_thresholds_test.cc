@@ -9,7 +9,7 @@
 // sinusoidal grating, h₀ = 0.5 nm; free: period 20 nm, amplitude 2 nm; held: period 40 nm, amplitude 2 nm.
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/io/sheet_case.h>
+#include <nappe/analysis/state_summary.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
@@ -34,10 +34,18 @@ namespace
     bool   held;
   };
 
-  /// A periodic strip one period long, constant along y; Q2 with 64 cells per period.
-  SheetCase strip_case(const Grating &g)
+  /// A problem and the range of its threshold search.
+  struct StripCase
   {
-    SheetCase c;
+    SheetProblem         problem;
+    AdhesionPathSettings limits;
+  };
+
+  /// A periodic strip one period long, constant along y; Q2 with 64 cells per period.
+  StripCase strip_case(const Grating &g)
+  {
+    StripCase     k;
+    SheetProblem &c = k.problem;
     c.model.material               = MaterialCatalogue().material("graphene");
     c.model.geometric_nonlinearity = g.held; // free to slide: the membrane decouples (N = 0)
     c.domain.length_x              = g.wavelength;
@@ -46,15 +54,15 @@ namespace
     c.domain.coarse_cells_y        = 1;
     c.domain.global_refinements    = 2;
     c.domain.periodic              = true;
-    c.adhesion = std::make_shared<AdhesionPotential>(std::make_shared<SinusoidalGrating>(g.amplitude, g.wavelength),
-                                                     std::make_shared<Vdw93Law>(0.45, h0), GapMeasure::normal);
-    c.model.substrate = c.adhesion;
-    c.stepping.load_steps = 1;
-    c.limits.lowest_work_of_adhesion  = g.lowest;
-    c.limits.highest_work_of_adhesion = g.highest;
-    c.limits.relative_tolerance       = 2e-3;
-    c.limits.largest_step             = 0.1;
-    return c;
+    c.model.substrate = std::make_shared<AdhesionPotential>(
+      std::make_shared<SinusoidalGrating>(g.amplitude, g.wavelength), std::make_shared<Vdw93Law>(0.45, h0),
+      GapMeasure::normal);
+    c.stepping.load_steps             = 1;
+    k.limits.lowest_work_of_adhesion  = g.lowest;
+    k.limits.highest_work_of_adhesion = g.highest;
+    k.limits.relative_tolerance       = 2e-3;
+    k.limits.largest_step             = 0.1;
+    return k;
   }
 
   reference::Grating1DThresholds reference_thresholds(const Grating &g)
@@ -82,8 +90,8 @@ class AdhesionThresholds : public ::testing::TestWithParam<Grating>
 TEST_P(AdhesionThresholds, AgreeWithTheOneDimensionalReference)
 {
   const Grating        g   = GetParam();
-  const SheetCase      c   = strip_case(g);
-  const AdhesionLimits fe  = find_adhesion_limits(c, c.limits, MPI_COMM_WORLD);
+  const StripCase      c   = strip_case(g);
+  const AdhesionLimits fe  = find_adhesion_limits(c.problem, c.limits, MPI_COMM_WORLD);
   const auto           ref = reference_thresholds(g);
   expect_close("Γ_hold", fe.hold, ref.hold);
   expect_close("Γ_eq", fe.equal_energy, ref.eq);
@@ -104,12 +112,13 @@ INSTANTIATE_TEST_SUITE_P(Grating, AdhesionThresholds,
 TEST(AdhesionThresholds, ConformedBranchEnergyIsAdhesionPlusBendingInTheShortRangeLimit)
 {
   Grating   g{2e-9, 20e-9, 0.01, 0.05, false};
-  SheetCase c = strip_case(g);
-  c.adhesion  = std::make_shared<AdhesionPotential>(std::make_shared<SinusoidalGrating>(g.amplitude, g.wavelength),
-                                                   std::make_shared<Vdw93Law>(0.45, 0.1e-9), GapMeasure::vertical);
-  c.model.substrate       = c.adhesion;
-  const AdhesionPath path = follow_adhesion_path(c, Protocol::grown_conformal, c.limits, MPI_COMM_WORLD);
-  const double k = 2 * M_PI / g.wavelength, D = c.model.material.bending_rigidity;
+  StripCase c             = strip_case(g);
+  c.problem.model.substrate = std::make_shared<AdhesionPotential>(
+    std::make_shared<SinusoidalGrating>(g.amplitude, g.wavelength), std::make_shared<Vdw93Law>(0.45, 0.1e-9),
+    GapMeasure::vertical);
+  const AdhesionPath path = follow_adhesion_path(c.problem, StartProtocol::grown_conformal, c.limits,
+                                                 summary_path_measure(c.problem.model), MPI_COMM_WORLD);
+  const double k = 2 * M_PI / g.wavelength, D = c.problem.model.material.bending_rigidity;
   const double bending = D * g.amplitude * g.amplitude * std::pow(k, 4) / 4;
   unsigned int checked = 0;
   for (const auto &p : path.points)

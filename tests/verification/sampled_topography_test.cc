@@ -13,8 +13,9 @@
 #include <nappe/geometry/lattice_array.h>
 #include <nappe/geometry/radial_features.h>
 #include <nappe/geometry/stl_topography.h>
-#include <nappe/io/sheet_run.h>
 #include <nappe/physics/vdw_93_law.h>
+
+#include <common/sheet_solve.h>
 
 #include <gtest/gtest.h>
 
@@ -79,8 +80,7 @@ namespace
 
   Outcome run(std::shared_ptr<const Topography> topography, const std::string &name)
   {
-    SheetCase c;
-    c.title                            = "sampled topography: " + name;
+    SheetProblem c;
     c.model.material.name              = "MoS2";
     c.model.material.youngs_modulus_2d = 180;   // share/materials.prm, Bertolazzi et al. 2011
     c.model.material.poisson_ratio     = 0.29;  // share/materials.prm
@@ -89,21 +89,17 @@ namespace
     c.domain.coarse_cells_x = c.domain.coarse_cells_y = 4;
     c.domain.global_refinements                       = 2; // 16 × 16 Q2 cells, 2.5 nm
     c.domain.periodic                                 = true;
-    c.adhesion         = std::make_shared<AdhesionPotential>(std::move(topography), std::make_shared<Vdw93Law>(0.1, 0.5 * nm),
+    c.model.substrate  = std::make_shared<AdhesionPotential>(std::move(topography), std::make_shared<Vdw93Law>(0.1, 0.5 * nm),
                                                      GapMeasure::normal);
-    c.model.substrate  = c.adhesion;
-    c.protocol         = Protocol::laid_down;
+    c.start               = StartProtocol::laid_down;
     c.stepping.load_steps = 1; // no loads: the substrate is not scaled by λ
-    c.output_directory = ".";
-    c.output_name      = "sampled_topography_" + name;
-    c.write_fields     = false;
-    const SheetRunResult r = run_sheet_case(c, MPI_COMM_WORLD, logging() ? &std::cout : nullptr);
+    const SheetResult r   = test_support::solve_and_measure(c, MPI_COMM_WORLD, logging() ? &std::cout : nullptr);
     EXPECT_TRUE(r.converged) << name << ": " << r.message;
     Outcome o;
     if (!r.converged)
       return o;
     o.conformed_fraction = r.conformation->conformed_fraction;
-    o.peak_strain        = r.measures.max_principal_strain.value;
+    o.peak_strain        = r.measures.at("max_principal_strain").value;
     o.total_energy       = r.energy.total();
     if (logging())
       std::cout << "    " << name << ": conformed fraction " << std::setprecision(8) << o.conformed_fraction

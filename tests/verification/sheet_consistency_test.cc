@@ -16,6 +16,8 @@
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/sheet_system.h>
 
+#include <common/test_substrates.h>
+
 #include <gtest/gtest.h>
 
 #include <array>
@@ -26,6 +28,8 @@
 #include <vector>
 
 using namespace nappe;
+using test_support::reciprocal_vectors;
+using test_support::SpringToTopography;
 
 namespace
 {
@@ -34,18 +38,6 @@ namespace
 
   /// The reciprocal vectors b_i of the cell's lattice vectors a_j (b_i·a_j = δ_ij); a field built
   /// from sin/cos of 2π·k·(b_i·x) with integer k is periodic on the cell.
-  std::pair<Tensor<1, 2>, Tensor<1, 2>> reciprocal_vectors(const SheetDomain &domain)
-  {
-    const auto [a1, a2] = domain.lattice_vectors();
-    const double det    = a1[0] * a2[1] - a1[1] * a2[0];
-    Tensor<1, 2> b1, b2;
-    b1[0] = a2[1] / det;
-    b1[1] = -a2[0] / det;
-    b2[0] = -a1[1] / det;
-    b2[1] = a1[0] / det;
-    return {b1, b2};
-  }
-
   /// A smooth (ũ_x, ũ_y, w) field, periodic on the cell, with amplitudes @p u_amp and @p w_amp [m];
   /// @p seed shifts the phases so that different seeds give independent fields. It depends on the
   /// position only, so it is the same on every number of ranks.
@@ -68,28 +60,6 @@ namespace
 
   private:
     double       u_amp_, w_amp_, seed_;
-    Tensor<1, 2> b1_, b2_;
-  };
-
-  /// ψ(x, w) = k·d²/2 + c·d⁴ with d = w − s(x) and a smooth topography s(x) = s0·sin(2πb1·x)·cos(2πb2·x)
-  /// [J/m²]: a nonlinear spring to a corrugated substrate.
-  class SpringToTopography : public SurfacePotential
-  {
-  public:
-    SpringToTopography(const SheetDomain &domain, double k, double c, double s0) : k_(k), c_(c), s0_(s0)
-    {
-      std::tie(b1_, b2_) = reciprocal_vectors(domain);
-    }
-    void evaluate(const Point<2> &x, double w, double &psi, double &dpsi_dw, double &d2psi_dw2) const override
-    {
-      const double d = w - s0_ * std::sin(2.0 * M_PI * (b1_ * x)) * std::cos(2.0 * M_PI * (b2_ * x));
-      psi            = 0.5 * k_ * d * d + c_ * d * d * d * d;
-      dpsi_dw        = k_ * d + 4.0 * c_ * d * d * d;
-      d2psi_dw2      = k_ + 12.0 * c_ * d * d;
-    }
-
-  private:
-    double       k_, c_, s0_;
     Tensor<1, 2> b1_, b2_;
   };
 
@@ -269,6 +239,37 @@ TEST(SheetConsistency, ResidualAndHessianAreDerivativesOnRhombicCell)
   model.loads.mean_strain[0][1] = 0.004;
   model.loads.eigenstrain[0][0] = 0.002;
   check_consistency(model, domain);
+}
+
+// The adhesion factor c of a LoadLevel scales the substrate potential and nothing else (sheet_model.h):
+// the substrate energy, its gradient and its Hessian are c times those at c = 1, and the other energies
+// are unchanged. Exact up to round-off, since ψ enters linearly.
+TEST(SheetConsistency, AdhesionFactorScalesOnlyTheSubstrateTerms)
+{
+  const SheetDomain domain = rectangle(true);
+  SheetModel        model;
+  model.material  = test_material();
+  model.substrate = std::make_shared<SpringToTopography>(domain, 0.5, 20.0, 0.03);
+  SheetSystem       system(model, domain, MPI_COMM_WORLD);
+  const Vector U = ghosted(system, feasible_field(system, SmoothField(domain, 0.01, 0.05, 0.3)));
+  const double c = 0.37;
+
+  Vector R1 = system.make_owned_vector(), Rc = system.make_owned_vector(), R0 = system.make_owned_vector();
+  const EnergyParts e1 = system.assemble(U, LoadLevel(1.0, 1.0), R1, nullptr);
+  const EnergyParts ec = system.assemble(U, LoadLevel(1.0, c), Rc, nullptr);
+  const EnergyParts e0 = system.assemble(U, LoadLevel(1.0, 0.0), R0, nullptr);
+  EXPECT_EQ(e0.substrate, 0.0);
+  EXPECT_NEAR(ec.substrate, c * e1.substrate, 1e-13 * std::abs(e1.substrate));
+  EXPECT_DOUBLE_EQ(ec.stretching, e1.stretching);
+  EXPECT_DOUBLE_EQ(ec.bending, e1.bending);
+  // R(c) = R(0) + c·(R(1) − R(0)): the gradient is affine in c.
+  Vector expected = R1;
+  expected -= R0;
+  expected *= c;
+  expected += R0;
+  Vector difference = Rc;
+  difference -= expected;
+  EXPECT_LE(difference.l2_norm(), 1e-12 * R1.l2_norm());
 }
 
 // The linear Kirchhoff model has a quadratic energy: the residual is exactly linear, so its Taylor

@@ -64,6 +64,9 @@ namespace nappe
   AdhesionLimits find_adhesion_limits(const SheetProblem &problem, const AdhesionPathSettings &settings,
                                       MPI_Comm comm, std::ostream *log = nullptr);
 
+  /// The settings with @p stops added and the Γ range widened to contain them (stops sorted).
+  AdhesionPathSettings with_stops(AdhesionPathSettings settings, std::vector<double> stops);
+
   /// The state a path holds at exactly Γ (a stop of the path), or null if it never landed there.
   const AdhesionPathPoint *point_at(const AdhesionPath &path, double work_of_adhesion);
 } // namespace nappe

@@ -35,17 +35,31 @@ namespace nappe
    * (projected) area whose gap lies within the attractive range up to the peak traction,
    * g ≤ g_peak of the adhesion law. Suspended regions are the connected sets of cells (across
    * periodic edges too) in which more than half the area is not conformed.
+   *
+   * Raised parts and floor (our definitions): the floor is where the substrate height lies in the
+   * lower half of its range over the sheet, s < (s_min + s_max)/2; the rest is raised (feature tops,
+   * crests). A flat substrate is all floor. Contact is split accordingly, so that a sheet tenting on
+   * pillar tops (floor untouched) is told apart from one that touches the floor between them.
    */
   struct ConformationMeasures
   {
     double                       conformed_fraction = 0.0; ///< [-]
     double                       conformed_area     = 0.0; ///< [m²]
     double                       sheet_area         = 0.0; ///< [m²]
+    double                       floor_area         = 0.0; ///< area over the floor [m²]
+    double                       conformed_floor_area = 0.0; ///< conformed area over the floor [m²]
     double                       max_gap            = 0.0; ///< [m]
     dealii::Point<2>             max_gap_location;
     std::vector<SuspendedRegion> suspended_regions; ///< largest first
     /// One per quantity of the table with a histogram label (sheet_quantities.h), in table order.
     std::vector<StrainHistogram> histograms;
+
+    /// Share of the sheet's area in contact over raised parts [-].
+    double raised_contact_fraction() const { return (conformed_area - conformed_floor_area) / sheet_area; }
+    /// Share of the sheet's area in contact over the floor [-].
+    double floor_contact_fraction() const { return conformed_floor_area / sheet_area; }
+    /// Share of the floor that the sheet touches [-] (0 if there is no floor).
+    double floor_touched() const { return floor_area > 0 ? conformed_floor_area / floor_area : 0.0; }
   };
 
   /// The conformation of the sheet on its adhesion substrate (the model's), with @p histogram_bins

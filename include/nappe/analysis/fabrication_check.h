@@ -50,6 +50,22 @@ namespace nappe
   FabricationCheck fabrication_verdicts(const AdhesionLimits &limits, const FabricationCheckSettings &settings,
                                         double fracture_strain);
 
+  /// A feature height bracketed between a safe and an unsafe one [m]; a zero end was not found.
+  struct HeightBracket
+  {
+    double safe   = 0.0;
+    double unsafe = 0.0;
+    bool   found() const { return safe > 0 && unsafe > 0; }
+  };
+
+  /**
+   * Brackets the largest height for which @p safe holds, assuming one change from safe to unsafe as
+   * the height grows: from @p start, doubling while safe or halving while unsafe (at most 8 times),
+   * then @p bisections bisections of the bracket.
+   */
+  HeightBracket bracket_safe_height(const std::function<bool(double height)> &safe, double start,
+                                    unsigned int bisections);
+
   /**
    * The largest safe aspect ratio of a feature family: @p problem_with_height builds the problem with a
    * given feature height [m] (all else fixed). A height is safe when the sheet, lowered in Γ from
@@ -62,6 +78,6 @@ namespace nappe
                          const std::function<SheetProblem(double height)> &problem_with_height, MPI_Comm comm,
                          unsigned int bisections = 6, std::ostream *log = nullptr);
 
-  /// The regime name (classify_regime()) of a path state.
-  std::string verdict(const AdhesionPathPoint &state, double target_fraction);
+  /// The regime name (classify_regime()) of a state of @p path.
+  std::string verdict(const AdhesionPath &path, const AdhesionPathPoint &state, double target_fraction);
 } // namespace nappe

@@ -103,6 +103,11 @@ namespace nappe
     unsigned int          n_points_x() const { return nx; }
     unsigned int          n_points_y() const { return ny; }
     const dealii::Point<2> &origin() const { return x0; }
+    /// One element per data pixel along the finer spacing (common practice, no source).
+    std::vector<TopographyFeature> features() const override
+    {
+      return {{"pixel", std::min(dx[0], dx[1]), 1.0}};
+    }
     const dealii::Tensor<1, 2> &spacing() const { return dx; }
     /// Node (n_x − 1, n_y − 1).
     dealii::Point<2> last_node() const;

@@ -32,6 +32,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return lattice_name + " array"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override { return feature->features(); }
 
     /// Number of images within the support of one point, per lattice direction (for diagnostics).
     unsigned int n_images_per_direction() const { return 2 * range[0] + 1; }

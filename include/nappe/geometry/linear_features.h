@@ -32,6 +32,7 @@ namespace nappe
     Trench(double depth, double width, double edge_radius, double sidewall_angle);
     std::string name() const override { return "trench"; }
     std::string description() const override;
+    std::vector<TopographyFeature> features() const override;
 
   private:
     double d, w, r_edge, alpha;
@@ -48,6 +49,7 @@ namespace nappe
     Step(double height, double edge_radius, double sidewall_angle);
     std::string name() const override { return "step"; }
     std::string description() const override;
+    std::vector<TopographyFeature> features() const override;
 
   private:
     double h, r_edge, alpha;

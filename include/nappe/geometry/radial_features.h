@@ -23,6 +23,7 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "gaussian bump"; }
     std::string          description() const override;
+    std::vector<TopographyFeature> features() const override;
     double               support_radius() const override { return 10.0 * sigma; }
 
   private:
@@ -58,6 +59,7 @@ namespace nappe
     Pillar(double height, double radius, double edge_radius, double foot_radius, double sidewall_angle);
     std::string name() const override { return "pillar"; }
     std::string description() const override;
+    std::vector<TopographyFeature> features() const override;
 
   private:
     double h, r, r_edge, r_foot, alpha;
@@ -71,6 +73,7 @@ namespace nappe
     Cone(double height, double base_radius, double tip_radius, double foot_radius);
     std::string name() const override { return "cone"; }
     std::string description() const override;
+    std::vector<TopographyFeature> features() const override;
 
   private:
     double h, r, r_tip, r_foot;
@@ -91,6 +94,7 @@ namespace nappe
     RingRidge(double height, double ring_radius, double width, double edge_radius, double sidewall_angle);
     std::string name() const override { return "ring ridge"; }
     std::string description() const override;
+    std::vector<TopographyFeature> features() const override;
 
   private:
     double h, r, w, r_edge, alpha;

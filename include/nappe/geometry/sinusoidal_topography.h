@@ -14,6 +14,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "sinusoidal grating"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override;
 
   private:
     double amplitude, wavelength, k;
@@ -29,6 +31,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "egg carton"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override;
 
   private:
     double amplitude, wavelength, k;

@@ -4,10 +4,38 @@
 #include <deal.II/base/tensor.h>
 
 #include <limits>
+#include <optional>
+#include <vector>
 #include <string>
 
 namespace nappe
 {
+  /// The periods of a periodic topography: s(x + a₁) = s(x) and, unless stripes, s(x + a₂) = s(x).
+  struct TopographyLattice
+  {
+    enum class Kind
+    {
+      stripes,     ///< periodic along a₁ only, constant along the stripes (a grating)
+      square,      ///< |a₁| = |a₂|, a₁ ⟂ a₂
+      hexagonal,   ///< |a₁| = |a₂|, 60° apart
+      rectangular, ///< a₁ ⟂ a₂
+      oblique
+    };
+    Kind                 kind = Kind::oblique;
+    dealii::Tensor<1, 2> a1;  ///< [m]
+    dealii::Tensor<1, 2> a2;  ///< [m]; for stripes the direction along them (unit length)
+  };
+
+  /// A length of a topography that the mesh must resolve, and how many elements it needs.
+  struct TopographyFeature
+  {
+    std::string name;   ///< e.g. "edge radius", "wavelength", "pixel"
+    double      length; ///< [m]
+    /// Elements of the sheet's mesh the feature needs (common practice, no source: 8 per wavelength
+    /// of a smooth corrugation, 1 per rounding radius or data pixel).
+    double elements_needed;
+  };
+
   /**
    * Substrate topography: the height s(x, y) of the substrate surface above the reference plane z = 0,
    * seen as a single-valued height field over the plane.
@@ -43,6 +71,13 @@ namespace nappe
      * (lattice_array.h) need a finite value.
      */
     virtual double support_radius() const { return std::numeric_limits<double>::infinity(); }
+
+    /// The lattice the topography repeats on, if it is periodic by construction (gratings, egg
+    /// cartons, arrays, tilings); none otherwise (a formula or a height map may still be periodic).
+    virtual std::optional<TopographyLattice> lattice() const { return std::nullopt; }
+
+    /// The lengths the sheet's mesh must resolve (wavelengths, rounding radii, data spacing).
+    virtual std::vector<TopographyFeature> features() const { return {}; }
   };
 
   /// The flat substrate s = 0; a reference case and the neutral element of sums.

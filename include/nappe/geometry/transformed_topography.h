@@ -22,6 +22,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "scaled"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override;
     double               support_radius() const override { return lateral * base->support_radius(); }
 
   private:
@@ -38,6 +40,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "rotated"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override { return base->features(); }
     double               support_radius() const override { return base->support_radius(); }
 
   private:
@@ -54,6 +58,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "offset"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override { return base->features(); }
     double               support_radius() const override;
 
   private:
@@ -77,6 +83,8 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "periodic tiling"; }
     std::string          description() const override;
+    std::optional<TopographyLattice> lattice() const override;
+    std::vector<TopographyFeature>   features() const override { return base->features(); }
 
     /// The point of the base cell that p maps to.
     dealii::Point<2> wrap(const dealii::Point<2> &p) const;
@@ -96,6 +104,7 @@ namespace nappe
     dealii::Tensor<1, 2> gradient(const dealii::Point<2> &p) const override;
     std::string          name() const override { return "sum"; }
     std::string          description() const override;
+    std::vector<TopographyFeature> features() const override;
     double               support_radius() const override;
 
   private:

@@ -8,13 +8,11 @@ namespace nappe
 {
   /**
    * Writes the sheet's fields for ParaView as <directory>/<name>.pvtu with one <name>_<rank>.vtu
-   * piece per rank: deflection w, total in-plane displacement u = λE·x + ũ, membrane strain
-   * components and principal strains, stress resultants N [N/m], curvatures ∇∇w [1/m] and the
-   * MPI rank, and the substrate's fields (gap, contact indicator, traction) when there is one.
-   * Point coordinates are in m; each field states its unit in its name (w_nm, u_x_nm,
-   * N_xx_N_per_m, curvature_xx_per_nm; strains are dimensionless). Each file is written
+   * piece per rank: every field of the quantity table (sheet_quantities.h) that applies to the
+   * model, each with its unit in its name (w_nm, u_x_nm, N_xx_N_per_m, curvature_xx_per_nm, gap_nm;
+   * strains are dimensionless), and the MPI rank. Point coordinates are in m. Each file is written
    * under a temporary name and renamed when complete. Returns the path of the .pvtu record.
    */
-  std::string write_fields(const SheetSystem &system, const Vector &state, double load_factor,
+  std::string write_fields(const SheetSystem &system, const Vector &state, const LoadLevel &level,
                            const std::string &directory, const std::string &name);
 } // namespace nappe

@@ -4,13 +4,13 @@
 #include <nappe/analysis/fabrication_check.h>
 #include <nappe/io/sheet_case.h>
 
-#include <optional>
 #include <ostream>
 #include <string>
 
 namespace nappe
 {
-  /// Γ–fraction, Γ–energy and Γ–strain curves of both paths as CSV (one row per certified state).
+  /// Γ–energy curves and the paths' measured values (the state summary columns, e.g. Γ–fraction and
+  /// Γ–strain) of both paths as CSV, one row per certified state.
   void write_adhesion_paths_csv(const std::string &path, const AdhesionLimits &limits);
 
   /// The thresholds with their brackets, the hysteresis, the paths' statistics and (if given) the
@@ -22,5 +22,6 @@ namespace nappe
   void print_limits_summary(const SheetCase &sheet_case, const AdhesionLimits &limits, std::ostream &out);
 
   /// The verdict table of a fabrication check.
-  void print_fabrication_check(const SheetCase &sheet_case, const FabricationCheck &check, std::ostream &out);
+  void print_fabrication_check(const SheetCase &sheet_case, const AdhesionLimits &limits, const FabricationCheck &check,
+                               std::ostream &out);
 } // namespace nappe

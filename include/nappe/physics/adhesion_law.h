@@ -24,6 +24,14 @@ namespace nappe
    * dφ/dg itself; attractive_traction() returns it. d²φ/dg² [Pa/m] is the interface stiffness
    * that enters the tangent matrix.
    *
+   * Γ-linearity contract. At fixed shape parameters (h₀ and the law's own entries) a law is linear
+   * in its work of adhesion: φ_Γ(g) = Γ·f(g), with f independent of Γ. Continuation in Γ relies on
+   * it: it scales the whole substrate potential by the adhesion factor c = Γ/Γ_case of the LoadLevel
+   * (sheet_model.h) instead of rebuilding the law, which is exact only under this contract. A law
+   * whose shape depends on Γ (say, a range set by Γ over a peak stress) breaks it and must not be
+   * registered as it stands; tests/unit/adhesion_law_test.cc checks the contract for every
+   * registered law.
+   *
    * Laws are immutable after construction and evaluate() is const and re-entrant, so one law
    * object may be shared by all threads assembling a system.
    */

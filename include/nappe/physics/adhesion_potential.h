@@ -32,11 +32,6 @@ namespace nappe
 
     void evaluate(const dealii::Point<2> &x, double w, double &psi, double &dpsi_dw, double &d2psi_dw2) const override;
 
-    /// gap [nm], substrate height [nm], adhesion traction on the sheet (+ = towards the substrate)
-    /// [MPa], conformed (1 where the gap is within the attractive range up to the peak traction).
-    std::vector<std::string> field_names() const override;
-    void fields(const dealii::Point<2> &x, double w, std::vector<double> &values) const override;
-
     /// The gap at x for height w [m].
     double gap(const dealii::Point<2> &x, double w) const;
     /// True where the sheet is conformed: gap ≤ the gap of peak attractive traction.

@@ -2,8 +2,6 @@
 
 #include <deal.II/base/point.h>
 
-#include <string>
-#include <vector>
 
 namespace nappe
 {
@@ -17,18 +15,8 @@ namespace nappe
   public:
     virtual ~SurfacePotential() = default;
 
-    /// ψ [J/m²], ∂ψ/∂w [N/m³] and ∂²ψ/∂w² [N/m⁴] at position x [m] and height w [m].
+    /// ψ [J/m²], ∂ψ/∂w [Pa] and ∂²ψ/∂w² [Pa/m] at position x [m] and height w [m].
     virtual void evaluate(const dealii::Point<2> &x, double w, double &psi, double &dpsi_dw,
                           double &d2psi_dw2) const = 0;
-
-    /// Names of extra output fields this potential describes (e.g. the gap), with units in the name.
-    virtual std::vector<std::string> field_names() const { return {}; }
-    /// Values of those fields at x for height w, in the units their names state.
-    virtual void fields(const dealii::Point<2> &x, double w, std::vector<double> &values) const
-    {
-      (void)x;
-      (void)w;
-      values.clear();
-    }
   };
 } // namespace nappe

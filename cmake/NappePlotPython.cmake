@@ -1,0 +1,23 @@
+# The Python interpreter for the plotting scripts (scripts/*.py need numpy and matplotlib): the first of
+# CMake's Python3 interpreter and the python3 programs on the PATH that imports matplotlib. Cached as
+# NAPPE_PLOT_PYTHON (empty if none has it: plots are then skipped with a warning at run time).
+if(NOT DEFINED NAPPE_PLOT_PYTHON)
+  find_package(Python3 COMPONENTS Interpreter QUIET)
+  set(candidates ${Python3_EXECUTABLE})
+  string(REPLACE ":" ";" path_dirs "$ENV{PATH}")
+  foreach(dir ${path_dirs})
+    if(EXISTS "${dir}/python3")
+      list(APPEND candidates "${dir}/python3")
+    endif()
+  endforeach()
+  set(found "")
+  foreach(python ${candidates})
+    execute_process(COMMAND ${python} -c "import numpy, matplotlib" RESULT_VARIABLE rc OUTPUT_QUIET ERROR_QUIET)
+    if(rc EQUAL 0)
+      set(found ${python})
+      break()
+    endif()
+  endforeach()
+  set(NAPPE_PLOT_PYTHON "${found}" CACHE FILEPATH "Python interpreter with matplotlib for the plotting scripts")
+  message(STATUS "Plotting interpreter: ${found}")
+endif()

@@ -1,0 +1,29 @@
+#pragma once
+
+#include <deal.II/base/parameter_handler.h>
+
+#include <string>
+
+namespace nappe
+{
+  /**
+   * Checks the text of a parameter file against the entries declared in @p prm before it is read, so
+   * that a user sees nappe's own one-line messages instead of the library's: "<file>:<line>:" and the
+   * section path, the closest declared name for a misspelt entry or subsection ("did you mean …?"),
+   * the subsection that holds an entry written in the wrong place, the allowed values of a selection,
+   * a hint when a unit is typed after a number, and an unclosed or unexpected "end". Throws on the
+   * first problem.
+   */
+  void validate_parameter_text(const dealii::ParameterHandler &prm, const std::string &text,
+                               const std::string &file_name);
+
+  /**
+   * The same check for one assignment "Section/…/Entry=value" given on the command line (--set) or
+   * by a sweep axis; @p origin names where it came from (e.g. "--set").
+   */
+  void validate_assignment(const dealii::ParameterHandler &prm, const std::string &assignment,
+                           const std::string &origin);
+
+  /// A pattern description of deal.II ("[Double 0...MAX_DOUBLE (inclusive)]") in words ("a number ≥ 0").
+  std::string pattern_in_words(const std::string &description);
+} // namespace nappe

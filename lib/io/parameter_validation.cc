@@ -1,0 +1,282 @@
+#include <deal.II/base/patterns.h>
+#include <deal.II/base/utilities.h>
+
+#include <boost/property_tree/ptree.hpp>
+#include <boost/property_tree/xml_parser.hpp>
+
+#include <nappe/io/parameter_validation.h>
+
+#include <algorithm>
+#include <cctype>
+#include <map>
+#include <regex>
+#include <sstream>
+#include <vector>
+
+namespace nappe
+{
+  namespace
+  {
+    /// The declared entries (name → pattern description) and subsections of one section.
+    struct Section
+    {
+      std::map<std::string, std::string> entries;
+      std::map<std::string, Section>     sections;
+    };
+
+    /// deal.II writes names with every character but [a-zA-Z0-9] as "_xx" (hex).
+    std::string demangle(const std::string &name)
+    {
+      std::string out;
+      for (std::size_t i = 0; i < name.size(); ++i)
+        if (name[i] == '_' && i + 2 < name.size() && std::isxdigit(name[i + 1]) && std::isxdigit(name[i + 2]))
+          {
+            out += static_cast<char>(std::stoi(name.substr(i + 1, 2), nullptr, 16));
+            i += 2;
+          }
+        else
+          out += name[i];
+      return out;
+    }
+
+    void fill(Section &section, const boost::property_tree::ptree &tree)
+    {
+      for (const auto &[key, child] : tree)
+        if (child.count("value") && child.count("pattern_description"))
+          section.entries[demangle(key)] = child.get<std::string>("pattern_description");
+        else if (!child.empty())
+          fill(section.sections[demangle(key)], child);
+    }
+
+    Section declared(const dealii::ParameterHandler &prm)
+    {
+      std::stringstream xml;
+      prm.print_parameters(xml, dealii::ParameterHandler::XML);
+      boost::property_tree::ptree tree;
+      boost::property_tree::read_xml(xml, tree);
+      Section root;
+      fill(root, tree.get_child("ParameterHandler"));
+      return root;
+    }
+
+    std::string lower(std::string s)
+    {
+      std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return std::tolower(c); });
+      return s;
+    }
+
+    std::size_t edit_distance(const std::string &a, const std::string &b)
+    {
+      std::vector<std::size_t> row(b.size() + 1);
+      for (std::size_t j = 0; j <= b.size(); ++j)
+        row[j] = j;
+      for (std::size_t i = 1; i <= a.size(); ++i)
+        {
+          std::size_t diagonal = row[0];
+          row[0]               = i;
+          for (std::size_t j = 1; j <= b.size(); ++j)
+            {
+              const std::size_t up = row[j];
+              row[j]               = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] != b[j - 1])});
+              diagonal             = up;
+            }
+        }
+      return row[b.size()];
+    }
+
+    /// " (did you mean 'X'?)" for the closest of @p names, if close enough; "" otherwise.
+    template <class Map>
+    std::string suggestion(const std::string &name, const Map &names)
+    {
+      std::string best;
+      std::size_t best_distance = std::max<std::size_t>(2, name.size() / 3) + 1;
+      for (const auto &[candidate, unused] : names)
+        if (const std::size_t d = edit_distance(lower(name), lower(candidate)); d < best_distance)
+          {
+            best          = candidate;
+            best_distance = d;
+          }
+      return best.empty() ? "" : " (did you mean '" + best + "'?)";
+    }
+
+    /// The path of the first section (depth first) that declares an entry called @p name.
+    std::string owner_of(const Section &section, const std::string &name, const std::string &path = "")
+    {
+      if (section.entries.count(name))
+        return path;
+      for (const auto &[sub, child] : section.sections)
+        if (const std::string found = owner_of(child, name, path + sub + "/"); !found.empty())
+          return found;
+      return "";
+    }
+
+    std::string joined(const std::vector<std::string> &path)
+    {
+      std::string text;
+      for (const auto &p : path)
+        text += p + "/";
+      return text;
+    }
+
+    [[noreturn]] void fail(const std::string &where, const std::string &what)
+    {
+      AssertThrow(false, dealii::ExcMessage(where + ": " + what));
+      throw;
+    }
+
+    /// Checks @p value against the entry's pattern; @p entry is "Section/…/Entry" for the message.
+    void check_value(const std::string &description, const std::string &value, const std::string &where,
+                     const std::string &entry)
+    {
+      const auto pattern = dealii::Patterns::pattern_factory(description);
+      if (pattern->match(value))
+        return;
+      std::string hint;
+      if (std::regex_match(value, std::regex(R"(\s*[-+]?[0-9.]+([eE][-+]?[0-9]+)?\s*[^\s0-9.,].*)")))
+        hint = "; write the number alone: the unit is fixed by the entry (see its description in --print-defaults)";
+      fail(where, entry + " = '" + value + "': expected " + pattern_in_words(description) + hint);
+    }
+
+    const Section &enter(const Section &section, const std::vector<std::string> &path, const std::string &name,
+                         const std::string &where)
+    {
+      const auto it = section.sections.find(name);
+      if (it == section.sections.end())
+        fail(where, "no subsection '" + name + "' in " + (path.empty() ? "the file's top level" : joined(path)) +
+                      suggestion(name, section.sections));
+      return it->second;
+    }
+
+    void check_entry(const Section &section, const std::vector<std::string> &path, const std::string &name,
+                     const std::string &value, const std::string &where, const Section &root)
+    {
+      const auto it = section.entries.find(name);
+      if (it == section.entries.end())
+        {
+          std::string hint = suggestion(name, section.entries);
+          if (hint.empty())
+            if (const std::string owner = owner_of(root, name); !owner.empty())
+              hint = " ('" + name + "' belongs to subsection " + owner.substr(0, owner.size() - 1) + ")";
+          fail(where, "no entry '" + name + "' in " + (path.empty() ? "the file's top level" : joined(path)) + hint);
+        }
+      check_value(it->second, value, where, joined(path) + name);
+    }
+
+    /// The lines of a parameter file with continuation lines joined and comments removed.
+    std::vector<std::pair<unsigned int, std::string>> logical_lines(const std::string &text)
+    {
+      std::vector<std::pair<unsigned int, std::string>> lines;
+      std::istringstream                                in(text);
+      std::string                                       line, pending;
+      unsigned int                                      number = 0, first = 0;
+      while (std::getline(in, line))
+        {
+          ++number;
+          if (const auto hash = line.find('#'); hash != std::string::npos)
+            line.erase(hash);
+          if (pending.empty())
+            first = number;
+          line = dealii::Utilities::trim(line);
+          if (!line.empty() && line.back() == '\\')
+            {
+              pending += line.substr(0, line.size() - 1) + " ";
+              continue;
+            }
+          lines.emplace_back(first, dealii::Utilities::trim(pending + line));
+          pending.clear();
+        }
+      return lines;
+    }
+  } // namespace
+
+  std::string pattern_in_words(const std::string &d)
+  {
+    std::smatch m;
+    if (std::regex_match(d, m, std::regex(R"(\[Selection (.*) \])")))
+      {
+        std::string list = m[1];
+        for (std::size_t k = list.find('|'); k != std::string::npos; k = list.find('|'))
+          list.replace(k, 1, "', '");
+        return "one of '" + list + "'";
+      }
+    if (d == "[Bool]")
+      return "true or false";
+    if (std::regex_match(d, m, std::regex(R"(\[(Double|Integer range) (.*)\.\.\.(.*) \(inclusive\)\])")))
+      {
+        const std::string kind = m[1] == "Double" ? "a number" : "a whole number";
+        const std::string low = m[2], high = m[3];
+        const bool        no_low = low.find("MAX") != std::string::npos, no_high = high.find("MAX") != std::string::npos;
+        if (no_low && no_high)
+          return kind;
+        if (no_high)
+          return kind + " >= " + low;
+        if (no_low)
+          return kind + " <= " + high;
+        return kind + " from " + low + " to " + high;
+      }
+    if (d == "[Double -MAX_DOUBLE...MAX_DOUBLE (inclusive)]" || d == "[Double]")
+      return "a number";
+    if (d.rfind("[List of <[Double", 0) == 0)
+      return "a comma-separated list of numbers " + d;
+    return d;
+  }
+
+  void validate_parameter_text(const dealii::ParameterHandler &prm, const std::string &text,
+                               const std::string &file_name)
+  {
+    const Section                               root = declared(prm);
+    std::vector<const Section *>                stack{&root};
+    std::vector<std::string>                    path;
+    std::vector<unsigned int>                   opened;
+    for (const auto &[number, line] : logical_lines(text))
+      {
+        if (line.empty())
+          continue;
+        const std::string where = file_name + ":" + std::to_string(number);
+        std::smatch       m;
+        if (std::regex_match(line, m, std::regex(R"(subsection\s+(.*))")))
+          {
+            const std::string name = dealii::Utilities::trim(m[1]);
+            stack.push_back(&enter(*stack.back(), path, name, where));
+            path.push_back(name);
+            opened.push_back(number);
+          }
+        else if (line == "end")
+          {
+            if (path.empty())
+              fail(where, "'end' without an open subsection");
+            stack.pop_back();
+            path.pop_back();
+            opened.pop_back();
+          }
+        else if (std::regex_match(line, m, std::regex(R"(set\s+([^=]*?)\s*=\s*(.*))")))
+          check_entry(*stack.back(), path, m[1], dealii::Utilities::trim(m[2]), where, root);
+        else if (line.rfind("include ", 0) != 0)
+          fail(where, "expected 'set Entry = value', 'subsection Name' or 'end', found '" + line + "'");
+      }
+    if (!path.empty())
+      fail(file_name + ":" + std::to_string(opened.back()),
+           "subsection '" + path.back() + "' is never closed (an 'end' is missing)");
+  }
+
+  void validate_assignment(const dealii::ParameterHandler &prm, const std::string &assignment,
+                           const std::string &origin)
+  {
+    const auto eq = assignment.find('=');
+    if (eq == std::string::npos)
+      fail(origin + " '" + assignment + "'", "expected Section/Entry=value");
+    auto parts = dealii::Utilities::split_string_list(assignment.substr(0, eq), '/');
+    if (parts.size() < 2)
+      fail(origin + " '" + assignment + "'", "expected Section/Entry=value");
+    const Section            root = declared(prm);
+    const Section           *here = &root;
+    std::vector<std::string> path;
+    const std::string        where = origin + " '" + assignment + "'";
+    for (std::size_t k = 0; k + 1 < parts.size(); ++k)
+      {
+        here = &enter(*here, path, parts[k], where);
+        path.push_back(parts[k]);
+      }
+    check_entry(*here, path, parts.back(), dealii::Utilities::trim(assignment.substr(eq + 1)), where, root);
+  }
+} // namespace nappe

@@ -1,0 +1,226 @@
+#include <nappe/analysis/state_summary.h>
+#include <nappe/base/units.h>
+#include <nappe/base/version.h>
+#include <nappe/io/atomic_file.h>
+#include <nappe/io/caution.h>
+#include <nappe/io/json_writer.h>
+#include <nappe/io/sheet_report.h>
+#include <nappe/physics/adhesion_potential.h>
+
+#include <iomanip>
+#include <sstream>
+
+namespace nappe
+{
+  namespace
+  {
+    const double nm = units::nanometer;
+
+    std::string regime_of(const SheetCase &c, const ConformationMeasures &m)
+    {
+      return regime_name(classify_regime(m, c.limits.target_fraction));
+    }
+
+    void write_conformation(JsonWriter &json, const SheetCase &c, const ConformationMeasures &m)
+    {
+      const AdhesionPotential &a = *c.problem.model.adhesion();
+      json.begin_object("conformation");
+      json.value("verdict", regime_of(c, m));
+      json.value("definition", "share of the sheet's projected area with gap <= gap of peak adhesion traction");
+      json.quantity("conformed_fraction", m.conformed_fraction, "1");
+      json.quantity("raised_contact_fraction", m.raised_contact_fraction(), "1");
+      json.quantity("floor_contact_fraction", m.floor_contact_fraction(), "1");
+      json.quantity("floor_touched", m.floor_touched(), "1");
+      json.value("floor_definition", "substrate height in the lower half of its range over the sheet");
+      json.quantity("conformed_area", m.conformed_area / (nm * nm), "nm^2");
+      json.quantity("sheet_area", m.sheet_area / (nm * nm), "nm^2");
+      json.quantity("max_gap", m.max_gap / nm, "nm");
+      json.value("suspended_regions", static_cast<unsigned int>(m.suspended_regions.size()));
+      double suspended_area = 0.0;
+      for (const auto &r : m.suspended_regions)
+        suspended_area += r.area;
+      json.quantity("suspended_area", suspended_area / (nm * nm), "nm^2");
+      json.value("adhesion_law", a.law().name());
+      json.quantity("work_of_adhesion", a.law().work_of_adhesion(), "J/m^2");
+      json.quantity("equilibrium_gap", a.law().equilibrium_gap() / nm, "nm");
+      json.quantity("peak_traction_gap", a.law().peak_traction_gap() / nm, "nm");
+      json.value("gap_measure", a.gap_measure() == GapMeasure::normal ? "normal" : "vertical");
+      json.value("topography", a.topography().description());
+      json.value("protocol", c.problem.start == StartProtocol::laid_down ? "laid down" : "grown conformal");
+      json.end_object();
+    }
+
+    void write_extremes(JsonWriter &json, const SheetMeasures &measures)
+    {
+      json.begin_object("extremes");
+      for (const auto &e : measures.extremes)
+        {
+          json.begin_object(e.quantity->extreme_key);
+          json.value("value", e.extreme.value / e.quantity->si_per_unit);
+          json.value("unit", e.quantity->unit);
+          json.quantity("x", e.extreme.location[0] / nm, "nm");
+          json.quantity("y", e.extreme.location[1] / nm, "nm");
+          json.end_object();
+        }
+      json.end_object();
+    }
+
+    void write_solver(JsonWriter &json, const SheetResult &r)
+    {
+      const MinimizerReport &last = r.path.final_state();
+      json.begin_object("solver");
+      json.value("converged", r.converged);
+      json.value("load_steps", static_cast<unsigned int>(r.path.steps.size()));
+      json.value("step_cuts", r.path.step_cuts);
+      json.value("newton_iterations", r.path.newton_iterations);
+      json.quantity("final_residual", last.residual, "N");
+      json.quantity("residual_tolerance", last.tolerance, "N");
+      json.value("hessian_negative_pivots", last.negative_pivots);
+      json.value("stability", last.negative_pivots == 0 ? "stable minimum (Hessian positive definite)" : "unstable");
+      json.quantity("wall_time", r.path.wall_time, "s");
+      json.end_object();
+    }
+
+    void write_summary(const SheetCase &c, const SheetResult &r, std::ostream &out)
+    {
+      const SheetModel &model = c.problem.model;
+      JsonWriter        json(out);
+      json.begin_object();
+      json.value("program", "nappe " + version());
+      json.value("case", c.title);
+      json.value("note", model_caution());
+      json.begin_object("sheet");
+      json.value("material", model.material.name);
+      json.quantity("youngs_modulus_2d", model.material.youngs_modulus_2d, "N/m");
+      json.quantity("poisson_ratio", model.material.poisson_ratio, "1");
+      json.quantity("bending_rigidity", model.material.bending_rigidity / units::electronvolt, "eV");
+      json.end_object();
+      json.begin_object("discretization");
+      json.value("cells", static_cast<long long>(r.cells));
+      json.value("degrees_of_freedom", static_cast<long long>(r.unknowns));
+      json.value("element_degree", model.discretization.degree);
+      json.value("mpi_ranks", r.ranks);
+      json.end_object();
+      json.begin_object("energy");
+      json.quantity("stretching", r.energy.stretching, "J");
+      json.quantity("bending", r.energy.bending, "J");
+      json.quantity("substrate", r.energy.substrate, "J");
+      json.quantity("external_work", r.energy.external_work, "J");
+      json.quantity("total", r.energy.total(), "J");
+      json.end_object();
+      write_extremes(json, r.measures);
+      if (r.conformation)
+        write_conformation(json, c, *r.conformation);
+      json.begin_array("warnings");
+      for (const auto &w : r.warnings)
+        json.value("", w);
+      json.end_array();
+      write_solver(json, r);
+      json.end_object();
+    }
+  } // namespace
+
+  void write_sheet_summary(const std::string &path, const SheetCase &c, const SheetResult &r)
+  {
+    write_atomically(path, [&](std::ostream &out) { write_summary(c, r, out); });
+  }
+
+  void write_substrate_tables(const std::string &stem, const ConformationMeasures &m)
+  {
+    write_atomically(stem + "_strain_histogram.csv", [&](std::ostream &out) {
+      out << "quantity,bin_low,bin_high,area_fraction\n" << std::setprecision(8);
+      for (const auto &h : m.histograms)
+        for (std::size_t b = 0; b < h.area.size(); ++b)
+          out << h.quantity << "," << h.bin_edges[b] << "," << h.bin_edges[b + 1] << "," << h.area[b] / m.sheet_area
+              << "\n";
+    });
+    write_atomically(stem + "_suspended_regions.csv", [&](std::ostream &out) {
+      out << "region,area_nm2,max_gap_nm,x_nm,y_nm\n" << std::setprecision(8);
+      for (std::size_t i = 0; i < m.suspended_regions.size(); ++i)
+        {
+          const auto &r = m.suspended_regions[i];
+          out << i + 1 << "," << r.area / (nm * nm) << "," << r.max_gap / nm << "," << r.max_gap_location[0] / nm
+              << "," << r.max_gap_location[1] / nm << "\n";
+        }
+    });
+  }
+
+  void write_field_map(const std::string &path, const GridSamples &samples)
+  {
+    write_atomically(path, [&](std::ostream &out) {
+      out << "x_nm,y_nm";
+      for (const SheetQuantity *q : samples.quantities)
+        out << "," << q->name << q->unit_suffix();
+      out << "\n" << std::setprecision(8);
+      for (std::size_t k = 0; k < samples.points.size(); ++k)
+        {
+          out << samples.points[k][0] / nm << "," << samples.points[k][1] / nm;
+          for (const double v : samples.values[k])
+            out << "," << v;
+          out << "\n";
+        }
+    });
+  }
+
+  namespace
+  {
+    std::string percent(double fraction)
+    {
+      std::ostringstream s;
+      s << std::setprecision(3) << 100 * fraction << " %";
+      return s.str();
+    }
+
+    /// The sheet's state in the trade's words, with the contact split into raised parts and floor.
+    std::string sheet_state(const SheetCase &c, const ConformationMeasures &m)
+    {
+      const std::string contact = "in contact over " + percent(m.conformed_fraction) + " of its area (" +
+                                  percent(m.raised_contact_fraction()) + " on raised parts, " +
+                                  percent(m.floor_contact_fraction()) + " on the floor)";
+      switch (classify_regime(m, c.limits.target_fraction))
+        {
+          case Regime::conforms: return "conforms to the substrate — " + contact;
+          case Regime::tents: return "rests on the raised features (tents); the floor is untouched — " + contact;
+          case Regime::touches_floor: return "touches the floor over " + percent(m.floor_touched()) + " of it — " + contact;
+          default: return "suspended: bridges the features or has let go — " + contact;
+        }
+    }
+  } // namespace
+
+  void print_sheet_summary(const SheetCase &c, const SheetResult &r, const std::vector<std::string> &files,
+                           std::ostream &out)
+  {
+    out << "\n== " << c.title << " ==\n";
+    if (!r.converged)
+      {
+        out << "NO RESULT: " << r.message << "\n";
+        return;
+      }
+    const auto &m = r.measures;
+    out << std::setprecision(4);
+    if (r.conformation)
+      {
+        const auto &cm = *r.conformation;
+        out << "Sheet: " << sheet_state(c, cm) << "\n";
+        out << "       " << cm.suspended_regions.size() << " suspended region(s), largest gap " << cm.max_gap / nm
+            << " nm\n";
+      }
+    const auto &w = m.at("max_deflection"), &e1 = m.at("max_principal_strain");
+    out << "Max deflection:         " << w.value / nm << " nm at (" << w.location[0] / nm << ", " << w.location[1] / nm
+        << ") nm\n";
+    out << "Peak principal strain:  " << 100 * e1.value << " % at (" << e1.location[0] / nm << ", "
+        << e1.location[1] / nm << ") nm\n";
+    for (const auto &warning : r.warnings)
+      out << "WARNING: " << warning << "\n";
+    out << "Largest areal strain:   " << 100 * m.at("max_areal_strain").value << " %\n";
+    out << "Largest shear strain:   " << 100 * m.at("max_shear_strain").value << " %\n";
+    out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
+        << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
+        << ", total " << r.energy.total() / 1e-18 << "\n";
+    out << "Solver: certified stable equilibrium (Hessian positive definite; " << r.path.newton_iterations
+        << " Newton iterations in " << r.path.steps.size() << " load step(s), " << r.path.wall_time << " s)\n";
+    for (const auto &f : files)
+      out << f << "\n";
+    out << model_caution() << "\n";
+  }
+} // namespace nappe

@@ -1,0 +1,161 @@
+// Reading case files (io/sheet_case.h, io/case_file.h): the trade's units converted to SI, edge
+// conditions, relative paths, and bad entries named. Conversion factors: CODATA 2018 (1 eV =
+// 1.602176634e-19 J exactly); 1 nm = 1e-9 m, 1 kPa = 1e3 Pa, 1 nN = 1e-9 N by definition.
+#include <deal.II/base/parameter_handler.h>
+
+#include <nappe/io/case_file.h>
+#include <nappe/io/parameter_override.h>
+#include <nappe/io/sheet_case.h>
+#include <nappe/physics/adhesion_potential.h>
+
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <fstream>
+
+using namespace nappe;
+namespace fs = std::filesystem;
+
+namespace
+{
+  SheetCase parse(const std::string &text, const std::vector<std::string> &overrides = {})
+  {
+    dealii::ParameterHandler prm;
+    declare_sheet_case_parameters(prm);
+    read_parameter_text(prm, text, "test case");
+    for (const auto &o : overrides)
+      apply_override(prm, o);
+    return parse_sheet_case(prm);
+  }
+
+  std::string message_of(const std::function<void()> &f)
+  {
+    try
+      {
+        f();
+      }
+    catch (const std::exception &e)
+      {
+        return user_message(e);
+      }
+    return "";
+  }
+
+  const char *rectangle = R"(
+subsection Domain
+  set Shape = rectangle
+  set Length x = 120
+  set Length y = 80
+end
+subsection Edges
+  set Conditions = 0: clamped/fixed, 2: simply supported/free
+end
+subsection Loads
+  set Pressure = 50
+  set Point load = 2
+  set Point load x = 30
+  set Point load y = 40
+end
+subsection Sheet
+  set Material = custom
+  set Young's modulus 2D = 340
+  set Bending rigidity = 1.4
+end
+)";
+} // namespace
+
+TEST(CaseFile, ConvertsTheTradesUnitsToSI)
+{
+  const SheetCase c = parse(rectangle);
+  EXPECT_DOUBLE_EQ(c.problem.domain.length_x, 120e-9);
+  EXPECT_DOUBLE_EQ(c.problem.domain.length_y, 80e-9);
+  EXPECT_DOUBLE_EQ(c.problem.model.loads.pressure, 50e3);
+  ASSERT_EQ(c.problem.model.loads.point_loads.size(), 1u);
+  EXPECT_DOUBLE_EQ(c.problem.model.loads.point_loads[0].force, 2e-9);
+  EXPECT_DOUBLE_EQ(c.problem.model.loads.point_loads[0].location[1], 40e-9);
+  EXPECT_DOUBLE_EQ(c.problem.model.material.bending_rigidity, 1.4 * 1.602176634e-19);
+  EXPECT_DOUBLE_EQ(c.problem.model.material.youngs_modulus_2d, 340.0);
+}
+
+TEST(CaseFile, ReadsEdgeConditionsPerBoundaryId)
+{
+  const auto edges = parse(rectangle).problem.model.edges;
+  ASSERT_EQ(edges.size(), 2u);
+  EXPECT_EQ(edges.at(0).deflection, DeflectionCondition::clamped);
+  EXPECT_EQ(edges.at(0).in_plane, InPlaneCondition::fixed);
+  EXPECT_EQ(edges.at(2).deflection, DeflectionCondition::simply_supported);
+  EXPECT_EQ(edges.at(2).in_plane, InPlaneCondition::free);
+  const auto all = parse(rectangle, {"Edges/Conditions=all: clamped/free"}).problem.model.edges;
+  EXPECT_EQ(all.size(), 4u); // rectangle ids 0..3
+}
+
+TEST(CaseFile, RejectsAnEdgeIdTheDomainDoesNotHaveListingTheExistingOnes)
+{
+  const std::string m = message_of([] { parse(rectangle, {"Edges/Conditions=7: clamped/fixed"}); });
+  EXPECT_NE(m.find("Edges/Conditions"), std::string::npos) << m;
+  EXPECT_NE(m.find("no edge with id 7"), std::string::npos) << m;
+  EXPECT_NE(m.find("0, 1, 2, 3"), std::string::npos) << m;
+}
+
+TEST(CaseFile, RejectsUnknownConditionsAndAPeriodicDisk)
+{
+  EXPECT_NE(message_of([] { parse(rectangle, {"Edges/Conditions=0: welded/fixed"}); }).find("'welded'"),
+            std::string::npos);
+  EXPECT_NE(message_of([] { parse(rectangle, {"Edges/Conditions=0: clamped/sliding"}); }).find("'sliding'"),
+            std::string::npos);
+  EXPECT_NE(message_of([] { parse("subsection Domain\n set Shape = disk\n set Periodic = true\nend\n"); })
+              .find("Domain/Periodic"),
+            std::string::npos);
+}
+
+TEST(CaseFile, BuildsOneAdhesionSubstrateWithTheProtocol)
+{
+  const SheetCase c = parse(std::string(rectangle) + R"(
+subsection Substrate
+  set Enabled = true
+  set Protocol = grown conformal
+end
+subsection Adhesion
+  set Work of adhesion = 0.3
+  set Equilibrium separation = 0.6
+end
+)");
+  ASSERT_NE(c.problem.model.adhesion(), nullptr);
+  EXPECT_DOUBLE_EQ(c.problem.model.adhesion()->law().work_of_adhesion(), 0.3);
+  EXPECT_DOUBLE_EQ(c.problem.model.adhesion()->law().equilibrium_gap(), 0.6e-9);
+  EXPECT_EQ(c.problem.start, StartProtocol::grown_conformal);
+  EXPECT_EQ(parse(rectangle).problem.model.adhesion(), nullptr);
+}
+
+TEST(CaseFile, ChoosesTheSolverSeamByName)
+{
+  const SheetCase c = parse(rectangle);
+  EXPECT_EQ(c.problem.solver.linear_solver, "direct LDLT");
+  EXPECT_EQ(c.problem.solver.certificate, "LDLT inertia");
+  EXPECT_NE(message_of([] { parse(rectangle, {"Solver/Linear solver=gauss seidel"}); }).find("Solver/Linear solver"),
+            std::string::npos);
+}
+
+// A relative path means relative to the file that names it (here: the case file's directory).
+TEST(CaseFile, RelativePathsAreRelativeToTheCaseFile)
+{
+  const fs::path dir = fs::temp_directory_path() / "nappe_case_file_test";
+  fs::create_directories(dir / "cases");
+  const fs::path file = dir / "cases" / "drum.prm";
+  std::ofstream(file) << "subsection Domain\n  set Shape = mesh file\n  set Mesh file = ../meshes/drum.msh\nend\n"
+                      << "subsection Output\n  set Directory = results\nend\n";
+  dealii::ParameterHandler prm;
+  declare_sheet_case_parameters(prm);
+  read_parameter_file(prm, file.string());
+  EXPECT_EQ(fs::path(entry_text(prm, "Domain/Mesh file")), (dir / "meshes" / "drum.msh").lexically_normal());
+  EXPECT_EQ(fs::path(entry_text(prm, "Output/Directory")), (dir / "cases" / "results").lexically_normal());
+  fs::remove_all(dir);
+}
+
+TEST(CaseFile, AMissingFileIsNamed)
+{
+  dealii::ParameterHandler prm;
+  declare_sheet_case_parameters(prm);
+  const std::string m = message_of([&] { read_parameter_file(prm, "no/such/case.prm"); });
+  EXPECT_NE(m.find("no/such/case.prm"), std::string::npos) << m;
+}
