@@ -96,7 +96,7 @@ def read_json(path, what):
     except FileNotFoundError:
         raise InputError(f"{path}: file not found; expected {what}") from None
     except json.JSONDecodeError as err:
-        raise InputError(f"{path} line {err.lineno}: not valid JSON: {err.msg}") from None
+        raise InputError(f"{path} line {err.lineno}: not valid JSON at column {err.colno}: {err.msg}") from None
     except (OSError, UnicodeDecodeError) as err:
         raise InputError(f"{path}: cannot read: {err}") from None
     if not isinstance(raw, JsonObject):
@@ -110,9 +110,9 @@ def where(path, obj, key=None):
 
 
 def json_key(obj, key, path, expected, context=""):
-    if not isinstance(obj, dict) or key not in obj:
-        return_line = obj.line if isinstance(obj, JsonObject) else 1
-        raise InputError(f"{path} line {return_line}: missing key '{context}{key}'; expected {expected}")
+    """obj[key]; a missing key is reported at the line of the object that lacks it."""
+    if key not in obj:
+        raise InputError(f"{where(path, obj)}: missing key '{context}{key}'; expected {expected}")
     return obj[key]
 
 
@@ -454,10 +454,11 @@ def beside(argument):
     return os.path.dirname(argument) or "."
 
 
-def run_script(prog, description, input_help, load, figures, default_out=beside, argv=None):
-    """Command line INPUT [--out DIR]: load(INPUT) reads everything (InputError: exit 2, nothing written),
-    figures(data, INPUT) lists (stem, builder); files go to DIR or default_out(INPUT)."""
-    parser = argparse.ArgumentParser(prog=prog, description=description)
+def run_script(prog, doc, input_help, load, figures, default_out=beside, argv=None):
+    """Command line INPUT [--out DIR] (described by the first line of the script's `doc`): load(INPUT)
+    reads everything (InputError: exit 2, nothing written), figures(data, INPUT) lists (stem, builder);
+    the files go to DIR or default_out(INPUT). Returns the exit status."""
+    parser = argparse.ArgumentParser(prog=prog, description=doc.strip().splitlines()[0])
     parser.add_argument("input", metavar="INPUT", help=input_help)
     parser.add_argument("--out", metavar="DIR", help="where to write the figures (default: beside the input)")
     args = parser.parse_args(argv)

@@ -413,11 +413,6 @@ def figures(case, _argument):
     return chosen
 
 
-def main(argv=None):
-    return npl.run_script("plot_case", "Figures of one nappe solve (maps and, for 1D-like cells, a line cut).",
-                          "result name of a nappe-solve run (CASE_STEM, CASE_STEM.json or CASE_STEM_map.csv)",
-                          load, figures, argv=argv)
-
-
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(npl.run_script("plot_case", __doc__, "result name of a nappe-solve run (CASE_STEM, or CASE_STEM.json "
+                            "or CASE_STEM_map.csv)", load, figures))

@@ -288,11 +288,6 @@ def figures(limits, _argument):
     return [(f"{limits.name}_adhesion_loop", lambda: adhesion_loop(limits))]
 
 
-def main(argv=None):
-    return npl.run_script("plot_limits", "The Γ–fraction hysteresis loop of a nappe threshold search.",
-                          "result name of a nappe-limits run (LIMITS_STEM, or one of its two files)",
-                          load, figures, argv=argv)
-
-
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(npl.run_script("plot_limits", __doc__, "result name of a nappe-limits run (LIMITS_STEM, or one of "
+                            "its two files)", load, figures))

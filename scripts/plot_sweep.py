@@ -270,11 +270,6 @@ def figures(sweep, _directory):
     return chosen
 
 
-def main(argv=None):
-    return npl.run_script("plot_sweep", "Figures of a nappe design sweep.",
-                          "sweep directory with sweep.json and sweep.csv", load, figures,
-                          default_out=lambda directory: directory, argv=argv)
-
-
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(npl.run_script("plot_sweep", __doc__, "sweep directory with sweep.json and sweep.csv", load, figures,
+                            default_out=lambda directory: directory))

@@ -44,9 +44,10 @@ MEASURES = ["max_gap_nm", "max_deflection_nm", "max_principal_strain", "min_prin
 
 # ---------------------------------------------------------------- synthetic sweeps
 
-def synthetic(amplitude, period, material="graphene"):
-    """Made-up responses of one grating point (see the module docstring)."""
-    gamma, fracture, stiffness = MATERIALS[material]
+def synthetic(amplitude, period, material="graphene", gamma=None):
+    """Made-up responses of one grating point (see the module docstring); Γ is the material's unless given."""
+    material_gamma, fracture, stiffness = MATERIALS[material]
+    gamma = gamma or material_gamma
     ak = amplitude * 2 * math.pi / period
     hold = 1.2 * stiffness * ak ** 2
     fraction = 1 / (1 + (hold / gamma) ** 3)
@@ -109,7 +110,7 @@ class SweepWriter:
     def values_of(self, coords):
         named = {a["name"]: c for a, c in zip(self.axes, coords)}
         return synthetic(named.get("amplitude", 0.5), named.get("period", 10.0),
-                         named.get("sheet material", "graphene"))
+                         named.get("sheet material", "graphene"), named.get("work of adhesion"))
 
     def row(self, number, coords, failed):
         values = self.values_of(coords)
@@ -164,6 +165,17 @@ def sweep_2d(directory, thresholds, irregular=False):
     SweepWriter(directory, [numeric_axis("amplitude", "Amplitude", AMPLITUDES),
                             numeric_axis("period", "Wavelength", PERIODS)], thresholds).write(
         points, failed={(0.5, 15.0)}, skip=skip)
+
+
+GAMMAS = [0.2, 0.3, 0.45, 0.6]
+
+
+def sweep_gamma_axis(directory):
+    """Amplitude × the work of adhesion itself: each point has its own Γ, both axes numeric."""
+    axes = [numeric_axis("amplitude", "Amplitude", AMPLITUDES),
+            {"parameter": "Adhesion/Work of adhesion", "name": "work of adhesion", "unit": "J/m²",
+             "categorical": False, "values": GAMMAS}]
+    SweepWriter(directory, axes, True).write([(a, g) for g in GAMMAS for a in AMPLITUDES])
 
 
 def sweep_materials(directory, thresholds):
@@ -334,31 +346,48 @@ class DrawsATwoAxisSweep(support.ProbedTestCase):
     make = staticmethod(lambda directory: (directory, sweep_2d(directory, thresholds=True)))
 
     def test_shared_gamma_is_a_contour_at_that_gamma(self):
-        contour = artists(self.drawn["gamma_hold"], "gamma_contour")
-        self.assertTrue(contour, "one Γ for every point: a contour of Γ_hold at it")
         hold = {(a, p): synthetic(a, p)["gamma_hold_J_per_m2"] for a in AMPLITUDES for p in PERIODS}
-        # Contour vertices lie on grid lines (linear interpolation there); the label's gap adds others.
-        on_lines = [v for item in contour for path in item["paths"] for v in path if on_grid_line(*v)]
-        self.assertGreaterEqual(len(on_lines), 4)
-        for x, y in on_lines:
-            self.assertAlmostEqual(interpolated_on_grid_lines(hold, x, y), CASE_GAMMA, delta=1e-6 * CASE_GAMMA)
+        check_contour(self, artists(self.drawn["gamma_hold"], "gamma_contour"), hold, AMPLITUDES, PERIODS,
+                      CASE_GAMMA)
 
 
-def on_grid_line(x, y):
-    return any(abs(x - a) <= 1e-9 for a in AMPLITUDES) or any(abs(y - p) <= 1e-9 * 20 for p in PERIODS)
+class DrawsAGammaAxisSweep(support.ProbedTestCase):
+    make = staticmethod(lambda directory: (directory, sweep_gamma_axis(directory)))
+
+    def test_own_gamma_gives_the_contour_where_hold_equals_it(self):
+        self.assertEqual(artists(self.drawn["gamma_hold"], "gamma_contour"), [], "Γ differs between points")
+        ratio = {(a, g): synthetic(a, 10.0)["gamma_hold_J_per_m2"] / g for a in AMPLITUDES for g in GAMMAS}
+        check_contour(self, artists(self.drawn["gamma_hold"], "gamma_ratio_contour"), ratio, AMPLITUDES, GAMMAS,
+                      1.0)
 
 
-def interpolated_on_grid_lines(values, x, y):
-    """Linear interpolation of a grid function at a point on a grid line (where contour vertices lie)."""
-    for fixed, free, along in ((x, y, PERIODS), (y, x, AMPLITUDES)):
-        line = AMPLITUDES if along is PERIODS else PERIODS
-        match = [g for g in line if abs(g - fixed) <= 1e-9 * max(line)]
-        if match:
-            k = max(i for i, g in enumerate(along[:-1]) if g <= free + 1e-12)
-            t = (free - along[k]) / (along[k + 1] - along[k])
-            key = (lambda u: (match[0], u)) if along is PERIODS else (lambda u: (u, match[0]))
-            return (1 - t) * values[key(along[k])] + t * values[key(along[k + 1])]
-    raise AssertionError(f"contour vertex ({x}, {y}) is not on a grid line")
+def check_contour(test, contour, values, xs, ys, level):
+    """A contour of a grid function: its vertices on grid lines are where the linear interpolation along
+    the line equals the level (the label's gap adds vertices elsewhere, which are skipped)."""
+    test.assertTrue(contour, "the contour is drawn")
+    vertices = [v for item in contour for path in item["paths"] for v in path]
+    on_lines = [(x, y) for x, y in vertices if on_line(x, xs) is not None or on_line(y, ys) is not None]
+    test.assertGreaterEqual(len(on_lines), 4)
+    for x, y in on_lines:
+        test.assertAlmostEqual(interpolated_on_grid_lines(values, xs, ys, x, y), level, delta=1e-6 * level)
+
+
+def on_line(u, grid_values):
+    """The grid value u lies on, or None."""
+    return next((g for g in grid_values if abs(u - g) <= 1e-9 * max(grid_values)), None)
+
+
+def interpolate(along, free, value_at):
+    k = max(i for i, g in enumerate(along[:-1]) if g <= free + 1e-12)
+    t = (free - along[k]) / (along[k + 1] - along[k])
+    return (1 - t) * value_at(along[k]) + t * value_at(along[k + 1])
+
+
+def interpolated_on_grid_lines(values, xs, ys, x, y):
+    """Linear interpolation of a grid function {(x, y): value} at a point on a grid line."""
+    if on_line(x, xs) is not None:
+        return interpolate(ys, y, lambda v: values[(on_line(x, xs), v)])
+    return interpolate(xs, x, lambda v: values[(v, on_line(y, ys))])
 
 
 class RejectsBadInput(support.FigureTestCase):
