@@ -240,7 +240,7 @@ def map_figure(case, subject):
 
 def shade(fig, ax, case, values, label, **style):
     mesh = ax.pcolormesh(npl.cell_edges(case.map.x), npl.cell_edges(case.map.y), np.ma.masked_invalid(values),
-                         shading="flat", **style)
+                         shading="flat", rasterized=True, **style)  # an image inside the SVG, not a path per cell
     npl.tag(mesh, "map")
     fig.colorbar(mesh, ax=ax, shrink=0.9).set_label(label)
     return mesh
