@@ -9,7 +9,10 @@ install(TARGETS nappe EXPORT nappeTargets
         RUNTIME DESTINATION ${CMAKE_INSTALL_BINDIR})
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/include/nappe DESTINATION ${CMAKE_INSTALL_INCLUDEDIR})
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/share/ DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe OPTIONAL)
-install(PROGRAMS ${PROJECT_SOURCE_DIR}/scripts/plot_sweep.py DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
+install(PROGRAMS ${PROJECT_SOURCE_DIR}/scripts/plot_sweep.py ${PROJECT_SOURCE_DIR}/scripts/plot_case.py
+                 ${PROJECT_SOURCE_DIR}/scripts/plot_limits.py DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
+install(FILES ${PROJECT_SOURCE_DIR}/scripts/nappe_plotting.py ${PROJECT_SOURCE_DIR}/scripts/sweep_figures.py
+        DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
 
 set(nappe_cmake_dir ${CMAKE_INSTALL_LIBDIR}/cmake/nappe)
 install(EXPORT nappeTargets NAMESPACE nappe:: DESTINATION ${nappe_cmake_dir})

@@ -79,6 +79,7 @@ int main(int argc, char **argv)
                     "<stem>_adhesion_paths.csv.";
   app.demo_case       = demo_case;
   app.result_suffixes = {"_limits.json", "_adhesion_paths.csv"};
+  app.plot_script = "plot_limits.py";
   app.run = [](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm) {
     const bool             root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
     const nappe::LimitsRun run  = nappe::run_adhesion_limits(prm, c, comm, root ? &std::cout : nullptr);

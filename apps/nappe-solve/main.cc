@@ -79,6 +79,7 @@ int main(int argc, char **argv)
   app.commands["--list-materials"] = [](std::ostream &out) { nappe::MaterialCatalogue().print(out); };
   app.result_suffixes = {".json", ".pvtu", "_NNNN.vtu", "_strain_histogram.csv", "_suspended_regions.csv",
                          "_topography.csv", "_map.csv"};
+  app.plot_script = "plot_case.py";
   app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm) {
     const bool            root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
     const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root ? &std::cout : nullptr);

@@ -2,14 +2,21 @@
 
 #include <nappe/base/units.h>
 #include <nappe/io/case_checks.h>
+#include <nappe/base/collective.h>
 #include <nappe/physics/adhesion_potential.h>
 
+#include <unistd.h>
+
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 #include <iomanip>
 #include <sstream>
 
 namespace nappe
 {
+  namespace fs = std::filesystem;
+
   namespace
   {
     std::string number(double v, int digits = 3)
@@ -52,6 +59,78 @@ namespace nappe
           longest = std::max(longest, cell->face(f)->measure());
       const double refine = std::pow(2.0, domain.global_refinements);
       return {static_cast<unsigned long long>(tria.n_global_active_cells() * refine * refine), longest / refine};
+    }
+  } // namespace
+
+  namespace
+  {
+    /// MemAvailable of /proc/meminfo [bytes]; 0 if unknown.
+    double available_memory()
+    {
+      std::ifstream in("/proc/meminfo");
+      std::string   key;
+      double        kb = 0.0;
+      while (in >> key)
+        {
+          if (key == "MemAvailable:")
+            return (in >> kb) ? kb * 1024.0 : 0.0;
+          in.ignore(1 << 10, '\n');
+        }
+      return 0.0;
+    }
+
+    void check_output_directory(const std::string &directory)
+    {
+      AssertThrow(fs::is_directory(directory),
+                  dealii::ExcMessage("Output/Directory: '" + directory + "' does not exist (create it first)."));
+      const fs::path probe = fs::path(directory) / (".nappe-write-test-" + std::to_string(::getpid()));
+      std::ofstream(probe.string()) << "x";
+      const bool writable = fs::exists(probe);
+      std::error_code ignored;
+      fs::remove(probe, ignored);
+      AssertThrow(writable, dealii::ExcMessage("Output/Directory: cannot write into '" + directory + "'."));
+    }
+
+    /// The topography on a grid over the sheet: finite everywhere and at a slope any sheet model allows.
+    void check_topography(const SheetProblem &p)
+    {
+      const Topography &t = p.model.adhesion()->topography();
+      const auto [lower, upper] = p.domain.bounding_box();
+      const bool disk           = p.domain.shape == SheetDomain::Shape::disk;
+      double     steepest       = 0.0;
+      dealii::Point<2> where;
+      for (unsigned int j = 0; j <= 100; ++j)
+        for (unsigned int i = 0; i <= 100; ++i)
+          {
+            const dealii::Point<2> x(lower[0] + i * (upper[0] - lower[0]) / 100,
+                                     lower[1] + j * (upper[1] - lower[1]) / 100);
+            if (disk && x.norm() > p.domain.radius)
+              continue;
+            const std::string at = "(" + number(x[0] * 1e9, 6) + ", " + number(x[1] * 1e9, 6) + ") nm";
+            double            s  = 0.0;
+            dealii::Tensor<1, 2> slope;
+            try
+              {
+                s     = t.height(x);
+                slope = t.gradient(x);
+              }
+            catch (const std::exception &e)
+              {
+                AssertThrow(false, dealii::ExcMessage("Topography at " + at + ": " + user_message(e)));
+              }
+            AssertThrow(std::isfinite(s) && std::isfinite(slope[0]) && std::isfinite(slope[1]),
+                        dealii::ExcMessage("Topography at " + at + ": the height or slope is not a finite number (" +
+                                           t.description() + ")."));
+            if (slope.norm() > steepest)
+              {
+                steepest = slope.norm();
+                where    = x;
+              }
+          }
+      AssertThrow(steepest <= 10.0,
+                  dealii::ExcMessage("Topography: slope " + number(steepest) + " at (" + number(where[0] * 1e9) + ", " +
+                                     number(where[1] * 1e9) + ") nm, steeper than 84°; no sheet model applies to such "
+                                     "a surface (a depth or height in the wrong unit?): " + t.description()));
     }
   } // namespace
 
@@ -122,5 +201,20 @@ namespace nappe
                            "conformed fraction and the thresholds carry a discretisation error; check them at one "
                            "more Domain/Global refinement");
     return r;
+  }
+
+  void check_case_inputs(const SheetCase &c, const ResolutionReport &resolution)
+  {
+    check_output_directory(c.output.directory);
+    if (c.problem.model.adhesion())
+      check_topography(c.problem);
+    const double limit = c.memory_limit > 0 ? c.memory_limit : available_memory();
+    AssertThrow(limit <= 0 || resolution.memory <= limit,
+                dealii::ExcMessage("the case needs an estimated " + number(resolution.memory / 1e9, 2) +
+                                   " GB for one Newton step (" + std::to_string(resolution.unknowns) +
+                                   " unknowns), more than the " + number(limit / 1e9, 2) + " GB " +
+                                   (c.memory_limit > 0 ? "of Solver/Memory limit" : "this machine has available") +
+                                   "; use fewer Domain/Global refinements, or raise Solver/Memory limit if you know "
+                                   "better."));
   }
 } // namespace nappe

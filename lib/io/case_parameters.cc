@@ -31,7 +31,8 @@ namespace nappe
                         "Lower end of the range of Gamma searched for the thresholds (nappe-limits) [unit of "
                         "Adhesion/Work of adhesion unit].");
       prm.declare_entry("Highest work of adhesion", "1", Patterns::Double(0),
-                        "Upper end of that range [unit of Adhesion/Work of adhesion unit].");
+                        "Upper end of the range of Gamma searched for the thresholds (nappe-limits) [unit of "
+                        "Adhesion/Work of adhesion unit].");
       prm.declare_entry("Target conformed fraction", "0.99", Patterns::Double(0, 1),
                         "A state counts as conformed when its conformed fraction is at least this [-].");
       prm.declare_entry("Relative tolerance", "0.002", Patterns::Double(1e-6, 0.5),
@@ -42,7 +43,8 @@ namespace nappe
       prm.declare_entry("Largest fraction change", "0.02", Patterns::Double(1e-4, 1),
                         "A step stays on its branch only if the conformed fraction changes by at most this [-].");
       prm.declare_entry("Largest deflection change", "1", Patterns::Double(1e-3, 100),
-                        "... and the deflection by at most this many equilibrium separations h0 [-].");
+                        "A step stays on its branch only if the deflection changes nowhere by more than this many "
+                        "equilibrium separations h0 [-].");
       prm.declare_entry("Maximum solves", "600", Patterns::Integer(10, 100000),
                         "Minimisations one path may spend [-].");
       prm.leave_subsection();
@@ -148,6 +150,9 @@ namespace nappe
     prm.declare_entry("Max Newton iterations", "80", Patterns::Integer(1, 10000), "Per load step [-].");
     prm.declare_entry("Relative tolerance", "1e-9", Patterns::Double(0),
                       "Newton stops when |R| ≤ tolerance · (initial |R| of the step) [-].");
+    prm.declare_entry("Memory limit", "0", Patterns::Double(0),
+                      "A run whose estimated memory exceeds this is refused before it starts; 0 = the memory the "
+                      "machine has available at the start [GB].");
     prm.declare_entry("Linear solver", SolverSettings().linear_solver,
                       Patterns::Selection(alternatives(hessian_solver_names())),
                       "How each Newton step solves with the Hessian: 'direct LDLT' is MUMPS' symmetric indefinite "

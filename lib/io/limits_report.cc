@@ -4,6 +4,7 @@
 #include <nappe/io/caution.h>
 #include <nappe/io/json_writer.h>
 #include <nappe/io/limits_report.h>
+#include <nappe/io/text_table.h>
 #include <nappe/physics/adhesion_potential.h>
 
 #include <iomanip>
@@ -133,7 +134,7 @@ namespace nappe
                       limits.equal_energy);
       write_threshold(json, "gamma_snap", "smallest Gamma that pulls a laid-down sheet into conformation (Gamma raised)",
                       limits.snap);
-      if (limits.hold.found && limits.snap.found)
+      if (limits.hold.found && limits.snap.found && limits.snap.value() >= limits.hold.value())
         json.quantity("hysteresis", limits.snap.value() - limits.hold.value(), "J/m^2");
       if (limits.hold.found)
         json.quantity("margin_case_gamma_over_gamma_hold",
@@ -155,8 +156,10 @@ namespace nappe
     out << "  Γ_hold (conformed sheet lets go as Γ is lowered):  " << threshold_text(limits.hold) << "\n";
     out << "  Γ_eq   (conformed and laid-down states equal):     " << threshold_text(limits.equal_energy) << "\n";
     out << "  Γ_snap (laid-down sheet pulled into conformation): " << threshold_text(limits.snap) << "\n";
-    if (limits.hold.found && limits.snap.found)
+    if (limits.hold.found && limits.snap.found && limits.snap.value() >= limits.hold.value())
       out << "  Hysteresis Γ_snap − Γ_hold: " << limits.snap.value() - limits.hold.value() << " J/m²\n";
+    else if (limits.hold.found && limits.snap.found)
+      out << "  Hysteresis: not defined, Γ_snap < Γ_hold (the two paths bracket no bistable range)\n";
     if (limits.hold.found)
       out << "  Case Γ = " << gamma << " J/m²: margin Γ/Γ_hold = " << gamma / limits.hold.value() << " ("
           << (gamma >= limits.hold.value() ? "holds a conformed sheet" : "does not hold a conformed sheet") << ")\n";
@@ -171,26 +174,25 @@ namespace nappe
   void print_fabrication_check(const SheetCase &c, const AdhesionLimits &limits, const FabricationCheck &check,
                                std::ostream &out)
   {
-    const double  target = c.limits.target_fraction;
-    const auto   &name   = c.problem.model.material.name;
+    const double target = c.limits.target_fraction;
+    const auto  &name   = c.problem.model.material.name;
+    const auto   fixed  = [](double v, int digits) {
+      std::ostringstream s;
+      s << std::fixed << std::setprecision(digits) << v;
+      return s.str();
+    };
     out << "\nFabrication check: " << name << " on " << adhesion_of(c).topography().description() << "\n";
-    out << "  Γ [J/m²] | laid down (transfer)             | starting conformed               | Γ/Γ_hold\n"
-        << std::fixed;
+    std::vector<std::vector<std::string>> rows = {{"Γ [J/m²]", "laid down (transfer)", "fraction", "peak strain",
+                                                   "starting conformed", "fraction", "peak strain", "Γ/Γ_hold"}};
     for (const auto &r : check.rows)
-      {
-        out << "  " << std::setw(8) << std::setprecision(3) << r.work_of_adhesion << " | " << std::setw(19)
-            << verdict(limits.raising, r.transferred, target) << " " << std::setw(5) << std::setprecision(1)
-            << 100 * r.transferred.conformed_fraction << " % " << std::setw(5) << std::setprecision(2)
-            << 100 * peak_strain(limits.raising, r.transferred) << " % | " << std::setw(19) << verdict(limits.lowering, r.grown, target) << " "
-            << std::setw(5) << std::setprecision(1) << 100 * r.grown.conformed_fraction << " % " << std::setw(5)
-            << std::setprecision(2) << 100 * peak_strain(limits.lowering, r.grown) << " % | ";
-        if (r.margin)
-          out << std::setprecision(2) << *r.margin;
-        else
-          out << "n/a";
-        out << "\n";
-      }
-    out << "  (each state: verdict, conformed fraction, peak principal strain)\n" << std::defaultfloat;
+      rows.push_back({fixed(r.work_of_adhesion, 3), verdict(limits.raising, r.transferred, target),
+                      fixed(100 * r.transferred.conformed_fraction, 1) + " %",
+                      fixed(100 * peak_strain(limits.raising, r.transferred), 2) + " %",
+                      verdict(limits.lowering, r.grown, target), fixed(100 * r.grown.conformed_fraction, 1) + " %",
+                      fixed(100 * peak_strain(limits.lowering, r.grown), 2) + " %",
+                      r.margin ? fixed(*r.margin, 2) : std::string("n/a")});
+    print_table(rows, out);
+    out << "  (fraction: conformed fraction; peak strain: peak principal strain)\n" << std::defaultfloat;
     if (check.fracture_strain > 0)
       out << "  Fracture strain of " << name << ": " << 100 * check.fracture_strain << " %\n";
     else

@@ -9,6 +9,8 @@
 #include <nappe/physics/material_catalogue.h>
 
 #include <algorithm>
+#include <cmath>
+#include <sstream>
 
 namespace nappe
 {
@@ -43,6 +45,23 @@ namespace nappe
       if (s == "clamped")
         return DeflectionCondition::clamped;
       bad_edges(text, "unknown deflection condition '" + s + "'");
+    }
+
+    /**
+     * The entry's value, checked against the range any sheet model admits (wider than what the trade
+     * uses; plausibility_warnings() covers that): throws naming the entry, its value and the range.
+     * @p low_open excludes the lower bound.
+     */
+    double admissible(ParameterHandler &prm, const std::string &section, const std::string &entry, double low,
+                      double high, const std::string &unit, bool low_open = false)
+    {
+      const double value = prm.get_double(entry);
+      const bool   ok    = std::isfinite(value) && (low_open ? value > low : value >= low) && value <= high;
+      std::ostringstream range;
+      range << (low_open ? "(" : "[") << low << ", " << high << "]";
+      AssertThrow(ok, ExcMessage(section + "/" + entry + " = " + prm.get(entry) + " " + unit +
+                                 " is outside the admissible range " + range.str() + " " + unit + "."));
+      return value;
     }
 
     std::string id_list(const std::vector<types::boundary_id> &ids)
@@ -183,9 +202,10 @@ namespace nappe
       if (material == "custom")
         {
           model.material.name              = "custom";
-          model.material.youngs_modulus_2d = prm.get_double("Young's modulus 2D");
+          model.material.youngs_modulus_2d = admissible(prm, "Sheet", "Young's modulus 2D", 0, 1e4, "N/m", true);
           model.material.poisson_ratio     = prm.get_double("Poisson's ratio");
-          model.material.bending_rigidity  = prm.get_double("Bending rigidity") * units::electronvolt;
+          model.material.bending_rigidity =
+            admissible(prm, "Sheet", "Bending rigidity", 0, 1e4, "eV", true) * units::electronvolt;
         }
       else
         model.material = MaterialCatalogue().material(material);
@@ -200,9 +220,9 @@ namespace nappe
       prm.enter_subsection("Domain");
       periods_per_cell     = prm.get_integer("Periods per cell");
       d.shape              = SheetDomain::parse_shape(prm.get("Shape"));
-      d.length_x           = prm.get_double("Length x") * units::nanometer;
-      d.length_y           = prm.get_double("Length y") * units::nanometer;
-      d.radius             = prm.get_double("Radius") * units::nanometer;
+      d.length_x           = admissible(prm, "Domain", "Length x", 1e-3, 1e7, "nm") * units::nanometer;
+      d.length_y           = admissible(prm, "Domain", "Length y", 1e-3, 1e7, "nm") * units::nanometer;
+      d.radius             = admissible(prm, "Domain", "Radius", 1e-3, 1e7, "nm") * units::nanometer;
       d.periodic           = prm.get_bool("Periodic");
       d.coarse_cells_x     = prm.get_integer("Coarse cells x");
       d.coarse_cells_y     = prm.get_integer("Coarse cells y");
@@ -223,8 +243,8 @@ namespace nappe
     void parse_loads(ParameterHandler &prm, SheetLoads &loads)
     {
       prm.enter_subsection("Loads");
-      loads.pressure = prm.get_double("Pressure") * units::kilopascal;
-      if (const double force = prm.get_double("Point load"); force != 0.0)
+      loads.pressure = admissible(prm, "Loads", "Pressure", -1e6, 1e6, "kPa") * units::kilopascal;
+      if (const double force = admissible(prm, "Loads", "Point load", -1e6, 1e6, "nN"); force != 0.0)
         loads.point_loads.push_back({Point<2>(prm.get_double("Point load x") * units::nanometer,
                                               prm.get_double("Point load y") * units::nanometer),
                                      force * units::nanonewton});
@@ -262,11 +282,11 @@ namespace nappe
       const bool with_substrate = prm.get_bool("Enabled");
       const auto gap_measure    = parse_gap_measure(prm.get("Gap measure"));
       p.start = prm.get("Protocol") == "laid down" ? StartProtocol::laid_down : StartProtocol::grown_conformal;
-      p.initial_clearance = prm.get_double("Initial clearance") * units::nanometer;
+      p.initial_clearance = admissible(prm, "Substrate", "Initial clearance", 0, 1e3, "nm") * units::nanometer;
       prm.leave_subsection();
       if (with_substrate)
         {
-          std::shared_ptr<const AdhesionLaw> law        = parse_adhesion_parameters(prm);
+          std::shared_ptr<const AdhesionLaw> law = parse_adhesion_parameters(prm, p.model.material.name);
           const auto                         topography = TopographyFactory::parse_parameters(prm);
           if (periods_per_cell > 0)
             fit_cell_to_topography(p.domain, *topography, periods_per_cell);
@@ -287,7 +307,7 @@ namespace nappe
                                                       "(Substrate/Enabled = true)."));
     }
 
-    void parse_solver(ParameterHandler &prm, SheetProblem &p)
+    void parse_solver(ParameterHandler &prm, SheetProblem &p, double &memory_limit)
     {
       prm.enter_subsection("Solver");
       p.model.discretization.degree         = prm.get_integer("Element degree");
@@ -298,6 +318,7 @@ namespace nappe
       p.newton.relative_tolerance = prm.get_double("Relative tolerance");
       p.solver.linear_solver      = prm.get("Linear solver");
       p.solver.certificate        = prm.get("Stability certificate");
+      memory_limit                = prm.get_double("Memory limit") * 1e9;
       prm.leave_subsection();
     }
 
@@ -330,7 +351,7 @@ namespace nappe
     parse_substrate(prm, p, periods_per_cell);
     c.limits      = parse_limit_parameters(prm);
     c.fabrication = parse_fabrication_parameters(prm);
-    parse_solver(prm, p);
+    parse_solver(prm, p, c.memory_limit);
     c.output = parse_output(prm);
     return c;
   }

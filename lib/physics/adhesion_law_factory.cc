@@ -1,7 +1,9 @@
 #include <deal.II/base/exceptions.h>
+#include <deal.II/base/utilities.h>
 
 #include <nappe/base/units.h>
 #include <nappe/physics/adhesion_law_factory.h>
+#include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/exponential_cohesive_law.h>
 #include <nappe/physics/vdw_93_law.h>
 
@@ -15,7 +17,12 @@ namespace nappe
   {
     const char *const subsection_name   = "Adhesion";
     const char *const unit_j_per_m2     = "J/m^2";
+    const char *const unit_mj_per_m2    = "mJ/m^2";
     const char *const unit_mev_per_ang2 = "meV/A^2";
+    const char *const from_catalogue    = "from catalogue";
+    /// The works of adhesion any adhesion model may be given (our bounds: van der Waals adhesion of
+    /// 2D sheets is 0.01–1 J/m², and nothing sticks with more than tens of J/m²) [J/m²].
+    const double lowest_gamma = 1e-5, highest_gamma = 50.0;
 
     /// The registry, seeded with the built-in laws on first use (no static-initialisation order issues).
     std::map<std::string, AdhesionLawInfo> &registry()
@@ -87,15 +94,21 @@ namespace nappe
     {
       prm.declare_entry("Law", Vdw93Law::registered_name, dealii::Patterns::Selection(joined_names("|")),
                         law_doc);
-      prm.declare_entry("Work of adhesion", "0.45", dealii::Patterns::Double(0.0),
+      prm.declare_entry("Work of adhesion", "0.45",
+                        dealii::Patterns::Anything(),
                         "Work of adhesion Gamma (energy per area released when the sheet adheres; the "
-                        "depth of the adhesion well). Positive. Unit: given by 'Work of adhesion unit' "
-                        "(J/m^2 by default). Default: graphene on SiO2, 0.45 J/m^2 (Koenig et al., Nature "
-                        "Nanotechnology 6, 543, 2011).");
+                        "depth of the adhesion well): a positive number in 'Work of adhesion unit' (J/m^2 by "
+                        "default), or 'from catalogue': the catalogue's value for Sheet/Material on 'Substrate "
+                        "material' (nappe-solve --list-materials). Default: graphene on SiO2, 0.45 J/m^2 (Koenig "
+                        "et al., Nature Nanotechnology 6, 543, 2011).");
       prm.declare_entry("Work of adhesion unit", unit_j_per_m2,
-                        dealii::Patterns::Selection(std::string(unit_j_per_m2) + "|" + unit_mev_per_ang2),
-                        "Unit of 'Work of adhesion': J/m^2, or meV/A^2 (milli-electronvolt per square "
+                        dealii::Patterns::Selection(std::string(unit_j_per_m2) + "|" + unit_mj_per_m2 + "|" +
+                                                    unit_mev_per_ang2),
+                        "Unit of 'Work of adhesion': J/m^2, mJ/m^2, or meV/A^2 (milli-electronvolt per square "
                         "angstrom; 1 meV/A^2 = 0.01602176634 J/m^2).");
+      prm.declare_entry("Substrate material", "", dealii::Patterns::Anything(),
+                        "Name of the substrate in the catalogue's interfaces (e.g. SiO2); used with Work of "
+                        "adhesion = from catalogue.");
       prm.declare_entry("Equilibrium separation", "0.6", dealii::Patterns::Double(0.0),
                         "Equilibrium gap h0 between sheet and substrate surface, where the adhesion energy "
                         "is minimal and the traction vanishes. Positive. Unit: nm.");
@@ -113,13 +126,16 @@ namespace nappe
   {
     if (unit == unit_j_per_m2)
       return units::joule_per_m2;
+    if (unit == unit_mj_per_m2)
+      return 1e-3 * units::joule_per_m2;
     AssertThrow(unit == unit_mev_per_ang2,
-                dealii::ExcMessage("Adhesion/Work of adhesion unit: expected J/m^2 or meV/A^2, found <" + unit +
-                                   ">."));
+                dealii::ExcMessage("Adhesion/Work of adhesion unit: expected J/m^2, mJ/m^2 or meV/A^2, found <" +
+                                   unit + ">."));
     return units::mev_per_angstrom2;
   }
 
-  std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm)
+  std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm,
+                                                         const std::string      &sheet_material)
   {
     prm.enter_subsection(subsection_name);
 
@@ -131,15 +147,40 @@ namespace nappe
 
     const std::string unit        = prm.get("Work of adhesion unit");
     const double      unit_factor = work_of_adhesion_unit_factor(unit);
-    const double gamma = prm.get_double("Work of adhesion") * unit_factor;
-    AssertThrow(std::isfinite(gamma) && gamma > 0.0,
-                dealii::ExcMessage("Adhesion/Work of adhesion: expected a positive energy per area in " + unit +
-                                   ", found " + prm.get("Work of adhesion") + "."));
+    const std::string text        = dealii::Utilities::trim(prm.get("Work of adhesion"));
+    double            gamma       = 0.0;
+    if (text == from_catalogue)
+      {
+        const std::string substrate = prm.get("Substrate material");
+        AssertThrow(!substrate.empty() && sheet_material != "custom",
+                    dealii::ExcMessage("Adhesion/Work of adhesion = from catalogue needs Sheet/Material from the "
+                                       "catalogue and Adhesion/Substrate material (e.g. SiO2)."));
+        gamma = MaterialCatalogue().work_of_adhesion(sheet_material, substrate);
+      }
+    else
+      {
+        std::size_t used = 0;
+        try
+          {
+            gamma = std::stod(text, &used) * unit_factor;
+          }
+        catch (...)
+          {
+            used = 0;
+          }
+        AssertThrow(used == text.size() && !text.empty(),
+                    dealii::ExcMessage("Adhesion/Work of adhesion = '" + text + "': expected a number in " + unit +
+                                       " or 'from catalogue'."));
+      }
+    AssertThrow(std::isfinite(gamma) && gamma >= lowest_gamma && gamma <= highest_gamma,
+                dealii::ExcMessage("Adhesion/Work of adhesion = " + text + " " + unit +
+                                   " is outside the admissible range " + std::to_string(lowest_gamma / unit_factor) +
+                                   " to " + std::to_string(highest_gamma / unit_factor) + " " + unit + "."));
 
     const double h0 = prm.get_double("Equilibrium separation") * units::nanometer;
-    AssertThrow(std::isfinite(h0) && h0 > 0.0,
-                dealii::ExcMessage("Adhesion/Equilibrium separation: expected a positive length in nm, found " +
-                                   prm.get("Equilibrium separation") + "."));
+    AssertThrow(std::isfinite(h0) && h0 >= 0.01 * units::nanometer && h0 <= 50 * units::nanometer,
+                dealii::ExcMessage("Adhesion/Equilibrium separation = " + prm.get("Equilibrium separation") +
+                                   " nm is outside the admissible range 0.01 to 50 nm."));
 
     prm.enter_subsection(law);
     std::unique_ptr<AdhesionLaw> result;

@@ -2,11 +2,15 @@
 
 #include <nappe/base/collective.h>
 #include <nappe/io/atomic_file.h>
+#include <nappe/io/case_checks.h>
 #include <nappe/io/case_file.h>
 #include <nappe/io/parameter_override.h>
 #include <nappe/runs/app_driver.h>
+#include <nappe/runs/plotter.h>
 
+#include <algorithm>
 #include <chrono>
+#include <csignal>
 #include <filesystem>
 #include <iostream>
 #include <regex>
@@ -50,8 +54,8 @@ namespace nappe
 
     std::string usage(const CaseApp &app)
     {
-      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]...\n       " + app.name +
-                         " --demo [--set …] | --print-defaults | --validate CASE.prm [--set …] | --help";
+      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]... [--no-plots]\n       " +
+                         app.name + " --demo [--set …] | --print-defaults | --validate CASE.prm [--set …] | --help";
       for (const auto &[command, f] : app.commands)
         text += " | " + command;
       return text + "\n";
@@ -103,6 +107,7 @@ namespace nappe
   {
     dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
     dealii::deal_II_exceptions::suppress_stacktrace_in_exceptions();
+    std::signal(SIGXFSZ, SIG_IGN); // a file-size limit makes the write fail with a message, not kill the run
     MPI_Comm errors;
     MPI_Comm_dup(MPI_COMM_WORLD, &errors);
     int code = 1;
@@ -118,6 +123,34 @@ namespace nappe
     return code;
   }
 
+  namespace
+  {
+    /// Prints the resolution report and the plausibility warnings, and checks every input. Collective.
+    void preflight(const SheetCase &c, std::ostream &out, MPI_Comm comm)
+    {
+      run_collectively(comm, [&] {
+        const ResolutionReport r = resolution_report(c);
+        for (const auto &line : r.lines)
+          out << "  " << line << "\n";
+        for (const auto &w : plausibility_warnings(c))
+          out << "WARNING: " << w << "\n";
+        for (const auto &w : r.warnings)
+          out << "WARNING: " << w << "\n";
+        check_case_inputs(c, r);
+      });
+    }
+
+    /// Takes "--no-plots" out of the arguments; true if it was there.
+    bool without_plots(std::vector<std::string> &args)
+    {
+      const auto it = std::find(args.begin(), args.end(), "--no-plots");
+      if (it == args.end())
+        return false;
+      args.erase(it);
+      return true;
+    }
+  } // namespace
+
   int run_case_app(int argc, char **argv, const CaseApp &app)
   {
     return run_guarded(argc, argv, app.name, [&](const std::vector<std::string> &given, MPI_Comm comm) {
@@ -126,7 +159,8 @@ namespace nappe
       std::ostream      &out = root ? std::cout : silent;
       dealii::ParameterHandler prm;
       declare_sheet_case_parameters(prm);
-      std::vector<std::string> args = given;
+      std::vector<std::string> args     = given;
+      const bool               no_plots = without_plots(args);
       if (args.empty() || args[0] == "--help" || args[0] == "-h")
         {
           out << app.name << ": " << app.description << "\n\n" << usage(app);
@@ -147,6 +181,8 @@ namespace nappe
         args.erase(args.begin());
       read_case_arguments(prm, args, app);
       const SheetCase sheet_case = parse_sheet_case(prm);
+      out << "Case '" << sheet_case.title << "'\n";
+      preflight(sheet_case, out, comm);
       if (validate_only)
         {
           out << "case file is valid: " << sheet_case.title << "\n";
@@ -157,12 +193,15 @@ namespace nappe
           remove_previous_results(sheet_case.output, app.result_suffixes);
       });
       const CaseOutcome outcome = app.run(prm, sheet_case, comm);
-      if (outcome.results_written)
-        run_collectively(comm, [&] {
-          if (root)
-            write_atomically(sheet_case.output.stem() + ".used.prm",
-                             [&](std::ostream &s) { prm.print_parameters(s, dealii::ParameterHandler::PRM); });
-        });
+      if (!outcome.results_written)
+        return outcome.exit_code;
+      run_collectively(comm, [&] {
+        if (root)
+          write_atomically(sheet_case.output.stem() + ".used.prm",
+                           [&](std::ostream &s) { prm.print_parameters(s, dealii::ParameterHandler::PRM); });
+      });
+      if (root && !no_plots && !app.plot_script.empty())
+        run_plot_script(app.plot_script, {sheet_case.output.stem()}, out);
       return outcome.exit_code;
     });
   }

@@ -9,8 +9,6 @@ namespace nappe
 {
   CaseRun run_sheet_case(const SheetCase &c, MPI_Comm comm, std::ostream *log, bool write_results)
   {
-    if (log)
-      *log << "Case '" << c.title << "':";
     const SheetSolution solution = solve_sheet_problem(c.problem, comm, log);
     CaseRun             run;
     run.result = analyse_solution(solution, c.problem);

@@ -180,15 +180,17 @@ namespace nappe
         *log_ << s << std::flush;
     };
 
+    const double physical = system_.physical_force_scale(level);
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted            = state;
         const EnergyParts e = system_.assemble(ghosted, level, residual_, &H, tolerance < 0.0 ? &magnitude : nullptr);
         const double      r = residual_.l2_norm();
         // The tolerance is relative to the internal force magnitude (never zero at equilibrium),
-        // the initial imbalance and the caller's scale, whichever is largest.
+        // the initial imbalance, the problem's physical force scale and the caller's scale, whichever
+        // is largest.
         if (tolerance < 0.0)
-          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm()}) +
+          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm(), physical}) +
                       settings_.absolute_tolerance;
         double             shift    = 0.0;
         const unsigned int negative = factorize_positive_definite(shift);
@@ -218,6 +220,15 @@ namespace nappe
         if (r <= tolerance || at_round_off)
           {
             report.history.push_back(rec);
+            if (r > 1e-6 * physical)
+              {
+                std::ostringstream why;
+                why << "the residual stalled at " << std::scientific << std::setprecision(3) << r
+                    << " N, above a millionth of the forces this problem exerts (" << physical
+                    << " N): the case is badly scaled; check the units of its entries";
+                report.message = why.str();
+                return report;
+              }
             if (negative == 0)
               {
                 report.converged = true;

@@ -7,6 +7,24 @@
 
 namespace nappe
 {
+  namespace
+  {
+    /// What to try after a failed load path, from its cause.
+    std::string advice(const SheetModel &model, const MinimizerReport &report)
+    {
+      if (report.message.find("indefinite") != std::string::npos)
+        return "Check the supports (Edges/Conditions) and the loads: the sheet has no stable state as modelled.";
+      if (report.message.find("badly scaled") != std::string::npos)
+        return "Check the units of the entries.";
+      if (!model.loads.any())
+        return "This case has no loads, so load steps change nothing: the sheet must find its way onto the substrate "
+               "in one minimisation. Try Substrate/Protocol = grown conformal, follow the work of adhesion with "
+               "nappe-limits (its paths reach such states by continuation), or refine the mesh at the contact front "
+               "(Domain/Global refinements).";
+      return "Try more load steps (Solver/Load steps) or a finer mesh (Domain/Global refinements).";
+    }
+  } // namespace
+
   LoadPathReport follow_load_path(EnergyMinimizer &minimizer, Vector &state, const LoadSteppingSettings &settings,
                                   std::ostream *log, double adhesion_factor)
   {
@@ -37,7 +55,7 @@ namespace nappe
           {
             std::ostringstream s;
             s << "Newton did not reach a stable state at load factor " << target << " (" << report.message
-              << "). Try more load steps (Solver/Load steps), a finer mesh, or check that the case is supported.";
+              << "). " << advice(minimizer.system().model(), report);
             path.message   = s.str();
             path.wall_time = timer.wall_time();
             return path;

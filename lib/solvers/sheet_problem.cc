@@ -66,7 +66,7 @@ namespace nappe
     SheetSolution solution;
     solution.system = std::make_unique<SheetSystem>(problem.model, problem.domain, comm);
     if (log)
-      *log << " " << solution.system->dof_handler().get_triangulation().n_global_active_cells() << " cells, "
+      *log << "  solving: " << solution.system->dof_handler().get_triangulation().n_global_active_cells() << " cells, "
            << solution.system->n_dofs() << " unknowns, Q" << problem.model.discretization.degree << ", "
            << dealii::Utilities::MPI::n_mpi_processes(comm) << " MPI rank(s)\n";
     EnergyMinimizer minimizer(*solution.system, problem.newton, log,

@@ -8,6 +8,7 @@
 #include <deal.II/lac/sparsity_tools.h>
 #include <deal.II/numerics/vector_tools.h>
 
+#include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/fvk_kinematics.h>
 #include <nappe/solvers/sheet_system.h>
 
@@ -332,6 +333,19 @@ namespace nappe
     for (unsigned int i = 0; i < eval.dofs.size(); ++i)
       w += state(eval.dofs[i]) * eval.w_shape_values[i];
     return Utilities::MPI::sum(w, comm_);
+  }
+
+  double SheetSystem::physical_force_scale(const LoadLevel &level) const
+  {
+    const double L     = std::sqrt(domain_.area());
+    const auto  &m     = model_.material;
+    double       scale = L * m.youngs_modulus_2d * 1e-3 + m.bending_rigidity / L;
+    if (const AdhesionPotential *a = model_.adhesion())
+      scale += L * level.adhesion * a->law().work_of_adhesion();
+    scale += level.load * std::abs(model_.loads.pressure) * L * L;
+    for (const auto &f : model_.loads.point_loads)
+      scale += level.load * std::abs(f.force);
+    return scale;
   }
 
   Vector SheetSystem::make_owned_vector() const { return Vector(owned_dofs_, comm_); }

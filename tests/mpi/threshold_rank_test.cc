@@ -7,6 +7,7 @@
 
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/geometry/sinusoidal_topography.h>
+#include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
 

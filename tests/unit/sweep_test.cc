@@ -2,6 +2,7 @@
 // sweep file, fingerprints of a point's inputs, resumption that keeps only records computed from the
 // same inputs, and the lock of an output folder. The case (our own scenario) is a clamped 100 nm
 // square sheet under pressure, two points of a few hundred unknowns each.
+#include <nappe/base/collective.h>
 #include <nappe/io/sweep_file.h>
 #include <nappe/io/sweep_records.h>
 #include <nappe/runs/sweep_run.h>

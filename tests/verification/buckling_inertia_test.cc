@@ -4,6 +4,7 @@
 // biaxial critical value N_cr = 2π² D / a² (mode m = n = 1; Timoshenko & Gere, Theory of Elastic
 // Stability, 2nd ed., 1961, §9.2, eq. 9-9 with α = 1 and equal stresses in x and y).
 #include <nappe/physics/sheet_material.h>
+#include <nappe/solvers/symmetric_direct_solver.h>
 
 #include "common/sheet_solve.h"
 

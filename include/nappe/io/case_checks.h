@@ -38,4 +38,14 @@ namespace nappe
    * Newton step ≈ 4 s and 1 GB at 148k unknowns, growing as N^1.3 and N^1.2.
    */
   ResolutionReport resolution_report(const SheetCase &sheet_case);
+
+  /**
+   * Loads and checks every input a run will use, without solving: the mesh (resolution_report()), the
+   * output directory (exists and is writable), and the topography sampled on a 101 × 101 grid over the
+   * sheet (a hole in an STL, a height map sampled outside its scan with Extension = error, a formula
+   * that is not finite: each named with the place), and that its slope stays below 10 (84°), beyond
+   * which no sheet model applies. Throws on the first problem. Also refuses a case whose estimated
+   * memory exceeds Solver/Memory limit (0: the memory this machine has available now).
+   */
+  void check_case_inputs(const SheetCase &sheet_case, const ResolutionReport &resolution);
 } // namespace nappe

@@ -35,6 +35,8 @@ namespace nappe
     AdhesionPathSettings limits;
     /// Verdict table over an interface's Γ range and aspect-ratio scan (subsection "Fabrication check").
     FabricationCheckSettings fabrication;
+    /// The most memory a run may plan to use (Solver/Memory limit); 0: what the machine has available [bytes].
+    double memory_limit = 0.0;
   };
 
   /**

@@ -43,8 +43,9 @@ namespace nappe
   /**
    * Declares the subsection "Adhesion" in @p prm:
    *   - "Law"                    registered law name (Selection);
-   *   - "Work of adhesion"       Γ, in the unit chosen by
-   *   - "Work of adhesion unit"  "J/m^2" (default) or "meV/A^2" (1 meV/Å² = 0.01602176634 J/m²);
+   *   - "Work of adhesion"       Γ, in the unit chosen by "Work of adhesion unit", or "from catalogue";
+   *   - "Work of adhesion unit"  "J/m^2" (default), "mJ/m^2" or "meV/A^2" (1 meV/Å² = 0.01602176634 J/m²);
+   *   - "Substrate material"     the substrate's name in the catalogue, for "from catalogue";
    *   - "Equilibrium separation" h₀ [nm];
    *   - one subsection per registered law, named after it, with that law's own entries.
    */
@@ -52,10 +53,12 @@ namespace nappe
 
   /**
    * Reads the subsection "Adhesion" declared by declare_adhesion_parameters(), converts the
-   * values to SI, checks them and builds the selected law. Throws dealii::ExceptionBase with a
+   * values to SI, checks them (Γ between 1e-5 and 50 J/m², h₀ between 0.01 and 50 nm) and builds the
+   * selected law; "from catalogue" takes Γ of @p sheet_material on the substrate material. Throws dealii::ExceptionBase with a
    * message naming the offending entry and the expected value if an entry is out of range.
    */
-  std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm);
+  std::unique_ptr<AdhesionLaw> parse_adhesion_parameters(dealii::ParameterHandler &prm,
+                                                         const std::string      &sheet_material = "custom");
 
   /// The SI factor of a value of "Adhesion/Work of adhesion unit" ("J/m^2" or "meV/A^2"); throws otherwise.
   double work_of_adhesion_unit_factor(const std::string &unit);

@@ -55,6 +55,12 @@ namespace nappe
     /// Eigenstrain ε₀ [-] (thermal or lattice mismatch); the flat sheet with u = 0 carries −ε₀,
     /// so a negative eigenstrain pre-tensions it.
     dealii::SymmetricTensor<2, 2> eigenstrain;
+
+    /// Whether any load is nonzero (otherwise load steps change nothing).
+    bool any() const
+    {
+      return pressure != 0.0 || !point_loads.empty() || mean_strain.norm() > 0.0 || eigenstrain.norm() > 0.0;
+    }
   };
 
   /// Discretisation choices.

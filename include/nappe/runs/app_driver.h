@@ -41,14 +41,17 @@ namespace nappe
     /// The endings of the files a run writes after the stem "<directory>/<base name>" (e.g. ".json",
     /// "_limits.json"); "_NNNN.vtu" stands for the numbered field pieces.
     std::vector<std::string> result_suffixes;
+    /// The plotting script run on "<stem>" after a run that wrote results (unless --no-plots).
+    std::string plot_script;
     /// Runs a parsed case. @p prm holds the case's parameters.
     std::function<CaseOutcome(dealii::ParameterHandler &prm, const SheetCase &sheet_case, MPI_Comm comm)> run;
   };
 
   /**
    * The shared main of nappe-solve and nappe-limits: "CASE.prm | --demo" followed by
-   * "--set Section/Entry=value" pairs, or --help, --print-defaults, --validate CASE.prm and the app's
-   * own commands. Before a run, the results of an earlier run with the same stem (the app's
+   * "--set Section/Entry=value" pairs and --no-plots, or --help, --print-defaults, --validate CASE.prm
+   * and the app's own commands. --validate and every run print the plausibility warnings and the
+   * resolution report of the case (io/case_checks.h). Before a run, the results of an earlier run with the same stem (the app's
    * result_suffixes and <stem>.used.prm) are removed, so that a failed run leaves no stale result
    * beside its parameters; <stem>.used.prm is written only together with results. Output/Base name
    * left empty takes the case file's name.

@@ -72,6 +72,8 @@ namespace nappe
     /// @p force_scale sets the residual tolerance [N].
     MinimizerReport minimize(Vector &state, const LoadLevel &level, double force_scale);
 
+    const SheetSystem &system() const { return system_; }
+
   private:
     unsigned int factorize_positive_definite(double &shift);
     bool         line_search(Vector &state, const Vector &direction, double energy, double slope,

@@ -82,6 +82,15 @@ namespace nappe
     /// The matrix with the Hessian's sparsity pattern; reused across Newton steps.
     SparseMatrix &hessian_matrix() { return hessian_; }
 
+    /**
+     * The size of the forces this problem can exert [N], from its physical parameters on a cell of
+     * size L = √(area): L·(Y·10⁻³ + Γ) + D/L + |p|·L² + Σ|F| (a 0.1 % membrane strain, the adhesion,
+     * bending over the cell, the loads at level λ). Residual tolerances are relative to it, so that a
+     * trivial case (a flat sheet on a flat substrate) converges at once and a result's residual is
+     * small in physical terms, not only relative to its start.
+     */
+    double physical_force_scale(const LoadLevel &level) const;
+
     /// w of @p state (ghosted) at a point [m]; the same on every rank.
     double deflection_at(const Vector &state, const dealii::Point<2> &p) const;
 
