@@ -1,11 +1,9 @@
 #include <deal.II/base/timer.h>
-#include <deal.II/dofs/dof_tools.h>
-#include <deal.II/fe/component_mask.h>
 
-#include <nappe/physics/adhesion_potential.h>
-#include <nappe/solvers/adhesion_path.h>
-#include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/load_stepping.h>
+#include <nappe/solvers/path_tangent.h>
+
+#include "path_follower.h"
 
 #include <algorithm>
 #include <cmath>
@@ -14,56 +12,30 @@
 
 namespace nappe
 {
-  namespace
+  namespace internal
   {
-    const AdhesionPotential &adhesion_of(const SheetProblem &p)
+    namespace
     {
-      AssertThrow(p.model.adhesion(),
-                  dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
-      return *p.model.adhesion();
+      const AdhesionPotential &adhesion_of(const SheetProblem &p)
+      {
+        AssertThrow(p.model.adhesion(),
+                    dealii::ExcMessage("Adhesion limits need a substrate: set Substrate/Enabled = true."));
+        return *p.model.adhesion();
+      }
+    } // namespace
+
+    PathFollower::PathFollower(const SheetProblem &p, const AdhesionPathSettings &s, const PathMeasure &measure,
+                               MPI_Comm comm, std::ostream *log)
+      : problem_(p)
+      , adhesion_(adhesion_of(p))
+      , settings_(s)
+      , measure_(measure)
+      , system_(p.model, p.domain, comm)
+      , minimizer_(system_, p.newton, nullptr, make_hessian_solvers(p.solver, comm))
+      , log_(log)
+      , w_dofs_(deflection_dofs(system_))
+    {
     }
-
-    /// One path: the system, the minimiser and the last certified state; Γ enters as the adhesion
-    /// factor c = Γ/Γ_problem.
-    class PathFollower
-    {
-    public:
-      PathFollower(const SheetProblem &p, const AdhesionPathSettings &s, const PathMeasure &measure, MPI_Comm comm,
-                   std::ostream *log)
-        : problem_(p)
-        , adhesion_(adhesion_of(p))
-        , settings_(s)
-        , measure_(measure)
-        , system_(p.model, p.domain, comm)
-        , minimizer_(system_, p.newton, nullptr, make_hessian_solvers(p.solver, comm))
-        , log_(log)
-        , w_dofs_(dealii::DoFTools::extract_dofs(system_.dof_handler(), dealii::ComponentMask({false, false, true})))
-      {
-      }
-
-      AdhesionPath run(StartProtocol start);
-
-    private:
-      double    problem_gamma() const { return adhesion_.law().work_of_adhesion(); }
-      LoadLevel level(double gamma) const { return LoadLevel(1.0, gamma / problem_gamma()); }
-      AdhesionPathPoint measure(const Vector &owned, double gamma, unsigned int iterations) const;
-      double            max_deflection_change(const Vector &a, const Vector &b) const;
-      double            next_gamma(double gamma, double step, bool lowering) const;
-      void              say(const std::string &s) const
-      {
-        if (log_)
-          *log_ << s << std::flush;
-      }
-
-      const SheetProblem      &problem_;
-      const AdhesionPotential &adhesion_;
-      AdhesionPathSettings     settings_;
-      const PathMeasure       &measure_;
-      SheetSystem              system_;
-      EnergyMinimizer          minimizer_;
-      std::ostream            *log_;
-      dealii::IndexSet         w_dofs_;
-    };
 
     AdhesionPathPoint PathFollower::measure(const Vector &owned, double gamma, unsigned int iterations) const
     {
@@ -84,15 +56,21 @@ namespace nappe
       return p;
     }
 
-    double PathFollower::max_deflection_change(const Vector &a, const Vector &b) const
+    double PathFollower::fraction_of(const Vector &owned, double gamma) const
     {
-      double change = 0.0;
-      for (const auto i : w_dofs_)
-        change = std::max(change, std::abs(a(i) - b(i)));
-      return dealii::Utilities::MPI::max(change, system_.communicator());
+      Vector ghosted = system_.make_ghosted_vector();
+      ghosted        = owned;
+      return measure_.fraction ? measure_.fraction(system_, ghosted, level(gamma)) :
+                                 measure_.measure(system_, ghosted, level(gamma)).conformed_fraction;
     }
 
-    /// The next Γ: one step in ln Γ, not past the range's end nor past the next stop.
+    double PathFollower::max_deflection_change(const Vector &a, const Vector &b) const
+    {
+      Vector difference = a;
+      difference -= b;
+      return largest_entry(difference, w_dofs_, system_.communicator());
+    }
+
     double PathFollower::next_gamma(double gamma, double step, bool lowering) const
     {
       double next = lowering ? std::max(settings_.lowest_work_of_adhesion, gamma * std::exp(-step))
@@ -103,25 +81,36 @@ namespace nappe
       return next;
     }
 
-    std::string describe(const AdhesionPathPoint &p)
+    void PathFollower::progress(const AdhesionPath &path, double gamma)
     {
+      const double covered = std::log(gamma / range_start_) / std::log(range_end_ / range_start_);
+      if (covered < 0.25 * next_quarter_ - 1e-9 || next_quarter_ > 3)
+        return;
+      while (next_quarter_ <= 3 && covered >= 0.25 * next_quarter_ - 1e-9)
+        ++next_quarter_;
+      const double elapsed = timer_.wall_time();
       std::ostringstream s;
-      s << std::setprecision(5) << "  Γ = " << p.work_of_adhesion << " J/m²: conformed " << std::setprecision(4)
-        << 100 * p.conformed_fraction << " %, energy " << std::setprecision(5) << p.energy_per_area.total()
-        << " J/m² (" << p.newton_iterations << " Newton iterations)" << (p.after_jump ? " after a jump" : "") << "\n";
-      return s.str();
+      s << "  " << (path.lowering ? "lowering" : "raising") << " Γ: " << std::lround(100 * covered)
+        << " % of the range (Γ = " << std::setprecision(3) << gamma << " J/m², " << path.solves
+        << " minimisations, " << std::setprecision(2) << std::fixed << elapsed << " s; about "
+        << elapsed * (1 - covered) / covered << " s left)\n";
+      say(s.str());
     }
 
     AdhesionPath PathFollower::run(StartProtocol start)
     {
-      dealii::Timer timer;
-      AdhesionPath  path;
+      timer_.restart();
+      AdhesionPath path;
       path.value_names = measure_.names;
       path.lowering    = start == StartProtocol::grown_conformal;
-      double gamma  = path.lowering ? settings_.highest_work_of_adhesion : settings_.lowest_work_of_adhesion;
-      const double end = path.lowering ? settings_.lowest_work_of_adhesion : settings_.highest_work_of_adhesion;
-      say(std::string(path.lowering ? "Lowering Γ from the conformed state" : "Raising Γ from the laid-down state") +
-          "\n");
+      range_start_ = path.lowering ? settings_.highest_work_of_adhesion : settings_.lowest_work_of_adhesion;
+      range_end_   = path.lowering ? settings_.lowest_work_of_adhesion : settings_.highest_work_of_adhesion;
+      double gamma = range_start_;
+      std::ostringstream head;
+      head << std::setprecision(3) << (path.lowering ? "Lowering Γ from the conformed state" :
+                                                       "Raising Γ from the laid-down state")
+           << " (" << range_start_ << " → " << range_end_ << " J/m²)\n";
+      say(head.str());
 
       SheetProblem start_problem = problem_;
       start_problem.start        = start;
@@ -132,11 +121,25 @@ namespace nappe
       if (!load.converged)
         {
           path.message = "no stable starting state at Γ = " + std::to_string(gamma) + " J/m²: " + load.message;
+          path.wall_time = timer_.wall_time();
           return path;
         }
       path.points.push_back(measure(state, gamma, load.newton_iterations));
-      say(describe(path.points.back()));
+      if (settings_.method == ContinuationMethod::predictor_corrector)
+        follow_by_continuation(path, state, gamma);
+      else
+        follow_by_bisection(path, state, gamma);
+      path.complete  = path.message.empty();
+      path.wall_time = timer_.wall_time();
+      return path;
+    }
 
+    // The earlier stepping (ContinuationMethod::bisection): warm start from the last certified state;
+    // a step that leaves the branch, or crosses the target fraction, is halved until it is within the
+    // tolerance, then the jump (or crossing) is accepted.
+    void PathFollower::follow_by_bisection(AdhesionPath &path, Vector &state, double gamma)
+    {
+      const double end   = range_end_;
       const double h0    = adhesion_.law().equilibrium_gap();
       double       step  = settings_.initial_step;
       Vector       trial = state;
@@ -183,14 +186,11 @@ namespace nappe
           state            = trial;
           gamma            = next;
           path.points.push_back(point);
-          say(describe(point));
+          progress(path, gamma);
           step = continuous ? std::min(settings_.largest_step, 1.5 * step) : settings_.initial_step;
         }
-      path.complete  = path.message.empty();
-      path.wall_time = timer.wall_time();
-      return path;
     }
-  } // namespace
+  } // namespace internal
 
   double AdhesionPath::value(const AdhesionPathPoint &point, const std::string &name) const
   {
@@ -219,7 +219,7 @@ namespace nappe
                                     std::ostream *log)
   {
     check_adhesion_path_settings(settings);
-    PathFollower follower(problem, settings, measure, comm, log);
+    internal::PathFollower follower(problem, settings, measure, comm, log);
     return follower.run(start);
   }
 } // namespace nappe

@@ -2,6 +2,7 @@
 #include <deal.II/numerics/vector_tools.h>
 
 #include <nappe/solvers/energy_minimizer.h>
+#include <nappe/solvers/trust_region_step.h>
 
 #include <cmath>
 #include <iomanip>
@@ -26,9 +27,16 @@ namespace nappe
       }
     };
 
-    double energy_scale(const EnergyParts &e)
+    /// Radius update of the trust region from ρ = actual/predicted decrease (Nocedal & Wright 2006,
+    /// Algorithm 4.1): shrink to ¼ of the step when the model was poor, double it when the model was
+    /// good and the step reached the boundary.
+    double updated_radius(double radius, double ratio, double length)
     {
-      return std::abs(e.stretching) + std::abs(e.bending) + std::abs(e.substrate) + std::abs(e.external_work);
+      if (ratio < 0.25)
+        return 0.25 * length;
+      if (ratio > 0.75 && length >= 0.9 * radius)
+        return 2.0 * radius;
+      return radius;
     }
   } // namespace
 
@@ -40,7 +48,17 @@ namespace nappe
     , solvers_(solvers.solver ? std::move(solvers) : make_hessian_solvers(SolverSettings(), system.communicator()))
     , residual_(system.make_owned_vector())
     , diagonal_(system.make_owned_vector())
+    , magnitude_(system.make_owned_vector())
+    , seed_(system.make_owned_vector())
   {
+    VectorTools::interpolate(system_.mapping(), system_.dof_handler(), SeedField(), seed_);
+    system_.constraints().set_zero(seed_);
+    eigenvector_ = seed_;
+  }
+
+  double EnergyMinimizer::energy_scale(const EnergyParts &e)
+  {
+    return std::abs(e.stretching) + std::abs(e.bending) + std::abs(e.substrate) + std::abs(e.external_work);
   }
 
   double EnergyMinimizer::energy_at(const Vector &owned_state, const LoadLevel &level) const
@@ -50,229 +68,179 @@ namespace nappe
     return system_.energy(ghosted, level).total();
   }
 
-  // Prepares the Hessian held in the system; if it is indefinite, adds μ·diag|H| with μ grown
-  // until the certificate finds no negative eigenvalue. Returns the count of the unshifted matrix.
-  // The search starts a little below the last shift that worked: a shift much larger than needed
-  // damps the soft modes (a moving adhesion front) and makes the iteration crawl.
-  unsigned int EnergyMinimizer::factorize_positive_definite(double &shift)
+  // The tolerance is relative to the internal force magnitude (never zero at equilibrium), the
+  // initial imbalance, the problem's physical force scale and the caller's scale, whichever is
+  // largest. magnitude_ holds the force magnitude of the first assembly.
+  double EnergyMinimizer::residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const
   {
-    SparseMatrix &H = system_.hessian_matrix();
-    solvers_.solver->prepare(H);
-    const unsigned int negative = solvers_.certificate->negative_eigenvalues(H);
-    shift                       = 0.0;
-    if (negative == 0)
-      return 0;
+    const double physical = system_.physical_force_scale(level);
+    return settings_.relative_tolerance * std::max({force_scale, first_residual, magnitude_.l2_norm(), physical}) +
+           settings_.absolute_tolerance;
+  }
+
+  std::string EnergyMinimizer::stalled_message(double residual, double physical) const
+  {
+    std::ostringstream why;
+    why << "the residual stalled at " << std::scientific << std::setprecision(3) << residual
+        << " N, above a millionth of the forces this problem exerts (" << physical
+        << " N): the case is badly scaled; check the units of its entries";
+    return why.str();
+  }
+
+  // S = diag|H|, floored at 1e-12 of its largest entry so that the scaled norm stays a norm.
+  void EnergyMinimizer::set_scaling(const SparseMatrix &H)
+  {
+    double largest = 0.0;
     for (const auto i : diagonal_.locally_owned_elements())
-      diagonal_(i) = std::abs(H.diag_element(i));
+      largest = std::max(largest, std::abs(H.diag_element(i)));
+    largest = Utilities::MPI::max(largest, system_.communicator());
+    for (const auto i : diagonal_.locally_owned_elements())
+      diagonal_(i) = std::max(std::abs(H.diag_element(i)), 1e-12 * largest);
     diagonal_.compress(VectorOperation::insert);
-    double added = 0.0;
-    for (double mu = std::max(1e-12, 1e-2 * last_shift_); mu < 1e6; mu *= 10.0)
-      {
-        for (const auto i : diagonal_.locally_owned_elements())
-          H.add(i, i, (mu - added) * diagonal_(i));
-        H.compress(VectorOperation::add);
-        added = mu;
-        solvers_.solver->prepare(H);
-        if (solvers_.certificate->negative_eigenvalues(H) == 0)
-          {
-            shift       = mu;
-            last_shift_ = mu;
-            return negative;
-          }
-      }
-    shift = -1.0;
-    return negative;
-  }
-
-  bool EnergyMinimizer::line_search(Vector &state, const Vector &direction, double energy, double slope,
-                                    const LoadLevel &level, double &step)
-  {
-    const auto &constraints = system_.constraints();
-    Vector      trial       = system_.make_owned_vector();
-    const double round_off  = 1e-13 * (std::abs(energy) + 1e-300);
-    step                    = 1.0;
-    for (unsigned int k = 0; k < settings_.max_backtracks; ++k, step *= 0.5)
-      {
-        trial = state;
-        trial.add(step, direction);
-        constraints.distribute(trial);
-        const double trial_energy = energy_at(trial, level);
-        // Near convergence the decrease drops below round-off of the energy: accept the full step.
-        if (trial_energy <= energy + settings_.armijo_slope * step * slope ||
-            (k == 0 && std::abs(slope) < round_off && trial_energy <= energy + 10.0 * round_off))
-          {
-            state = trial;
-            return true;
-          }
-      }
-    return false;
-  }
-
-  // Moves from a saddle along the direction of most negative curvature (generalised eigenvector
-  // of H v = λ·diag|H| v with the smallest λ, by inverse iteration with the shifted factorisation).
-  bool EnergyMinimizer::escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift)
-  {
-    const auto   &constraints = system_.constraints();
-    SparseMatrix &H           = system_.hessian_matrix();
-    Vector        d           = system_.make_owned_vector();
-    Vector        tmp         = system_.make_owned_vector();
-    {
-      Vector seed = system_.make_ghosted_vector();
-      Vector owned_seed = system_.make_owned_vector();
-      VectorTools::interpolate(system_.mapping(), system_.dof_handler(), SeedField(), owned_seed);
-      constraints.set_zero(owned_seed);
-      d = owned_seed;
-    }
-    for (unsigned int it = 0; it < 30; ++it)
-      {
-        tmp = d;
-        tmp.scale(diagonal_);
-        solvers_.solver->solve(tmp, d);
-        constraints.set_zero(d);
-        d /= d.l2_norm();
-      }
-    // Rayleigh quotient of the unshifted Hessian: H d = (H + μS) d − μ S d.
-    H.vmult(tmp, d);
-    Vector Sd = d;
-    Sd.scale(diagonal_);
-    const double curvature = (tmp * d - shift * (Sd * d)) / (Sd * d);
-    if (curvature >= 0.0)
-      return false;
-    constraints.distribute(d);
-    system_.assemble(
-      [&] {
-        Vector g = system_.make_ghosted_vector();
-        g        = state;
-        return g;
-      }(),
-      level, residual_, nullptr);
-    if (residual_ * d > 0.0)
-      d *= -1.0;
-    // Scale the direction so that its largest entry is a tenth of the domain's diameter.
-    const auto   box  = system_.domain().bounding_box();
-    const double size = box.first.distance(box.second);
-    d *= 0.1 * size / d.linfty_norm();
-    Vector trial = system_.make_owned_vector();
-    for (double step = 1.0; step > 1e-8; step *= 0.5)
-      {
-        trial = state;
-        trial.add(step, d);
-        constraints.distribute(trial);
-        if (energy_at(trial, level) < energy - 1e-12 * std::abs(energy))
-          {
-            state = trial;
-            return true;
-          }
-      }
-    return false;
   }
 
   MinimizerReport EnergyMinimizer::minimize(Vector &state, const LoadLevel &level, double force_scale)
   {
-    MinimizerReport report;
-    Vector          ghosted   = system_.make_ghosted_vector();
-    Vector          direction = system_.make_owned_vector();
-    Vector          magnitude = system_.make_owned_vector();
-    SparseMatrix   &H         = system_.hessian_matrix();
-    double          tolerance = -1.0;
-    auto            say       = [&](const std::string &s) {
+    hessian_current_ = false;
+    return settings_.method == MinimizerMethod::trust_region ? minimize_trust_region(state, level, force_scale) :
+                                                               minimize_line_search(state, level, force_scale);
+  }
+
+  void EnergyMinimizer::solve_with_hessian(const Vector &rhs, Vector &solution) const
+  {
+    AssertThrow(hessian_current_, ExcMessage("EnergyMinimizer::solve_with_hessian needs a converged minimisation "
+                                             "(the factorisation of the Hessian at its result)."));
+    solvers_.solver->solve(rhs, solution);
+  }
+
+  LowestEigenpair EnergyMinimizer::lowest_curvature()
+  {
+    AssertThrow(hessian_current_, ExcMessage("EnergyMinimizer::lowest_curvature needs a converged minimisation."));
+    set_scaling(system_.hessian_matrix());
+    LowestEigenpair e = solvers_.certificate->lowest_eigenpair(system_.hessian_matrix(), diagonal_, eigenvector_);
+    if (e.available)
+      eigenvector_ = e.vector;
+    return e;
+  }
+
+  MinimizerReport EnergyMinimizer::minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale)
+  {
+    MinimizerReport        report;
+    Vector                 ghosted = system_.make_ghosted_vector();
+    Vector                 trial   = system_.make_owned_vector();
+    SparseMatrix          &H       = system_.hessian_matrix();
+    MoreSorensenSubproblem subproblem(solvers_, seed_);
+    double                 tolerance = -1.0, radius = -1.0;
+    const double           physical  = system_.physical_force_scale(level);
+    const auto             say       = [&](const std::string &s) {
       if (log_)
         *log_ << s << std::flush;
     };
-
-    const double physical = system_.physical_force_scale(level);
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
-        ghosted            = state;
-        const EnergyParts e = system_.assemble(ghosted, level, residual_, &H, tolerance < 0.0 ? &magnitude : nullptr);
+        ghosted             = state;
+        const EnergyParts e = system_.assemble(ghosted, level, residual_, &H, tolerance < 0.0 ? &magnitude_ : nullptr);
         const double      r = residual_.l2_norm();
-        // The tolerance is relative to the internal force magnitude (never zero at equilibrium),
-        // the initial imbalance, the problem's physical force scale and the caller's scale, whichever
-        // is largest.
         if (tolerance < 0.0)
-          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm(), physical}) +
-                      settings_.absolute_tolerance;
-        double             shift    = 0.0;
-        const unsigned int negative = factorize_positive_definite(shift);
-        if (shift < 0.0)
-          {
-            report.message = "the Hessian stays indefinite under a shift of 1e5·diag|H| (last residual " +
-                             std::to_string(r) + " N); the model is probably unstable: check supports and loads";
-            return report;
-          }
-
-        IterationRecord rec{it, e.total(), r, 0.0, shift, negative};
-        report.iterations = it;
-        report.residual   = r;
-        report.energy     = e.total();
-        report.parts      = e;
-        report.negative_pivots = negative;
-        report.tolerance  = tolerance;
-
-        direction = residual_;
-        solvers_.solver->solve(residual_, direction);
-        direction *= -1.0;
-        const double slope = residual_ * direction;
-        // At the round-off floor of the residual the Newton decrement −R·δ (twice the predicted
+          tolerance = residual_tolerance(level, force_scale, r);
+        set_scaling(H);
+        const unsigned int negative = subproblem.set_point(H, residual_, diagonal_);
+        report.iterations           = it;
+        report.residual             = r;
+        report.energy               = e.total();
+        report.parts                = e;
+        report.negative_pivots      = negative;
+        report.tolerance            = tolerance;
+        report.factorizations       = subproblem.factorizations();
+        IterationRecord rec{it, e.total(), r, 0.0, 0.0, negative, radius, 0};
+        // At the round-off floor of the residual the Newton decrement gᵀH⁻¹g (twice the predicted
         // energy decrease) vanishes against the energy: the state is stationary to working precision.
-        const bool at_round_off = r <= 1e-6 * tolerance / settings_.relative_tolerance &&
-                                  std::abs(slope) <= 1e-14 * energy_scale(e);
+        const bool at_round_off = negative == 0 && r <= 1e-6 * tolerance / settings_.relative_tolerance &&
+                                  subproblem.newton_decrement() <= 1e-14 * energy_scale(e);
         if (r <= tolerance || at_round_off)
           {
-            report.history.push_back(rec);
             if (r > 1e-6 * physical)
               {
-                std::ostringstream why;
-                why << "the residual stalled at " << std::scientific << std::setprecision(3) << r
-                    << " N, above a millionth of the forces this problem exerts (" << physical
-                    << " N): the case is badly scaled; check the units of its entries";
-                report.message = why.str();
+                report.history.push_back(rec);
+                report.message = stalled_message(r, physical);
                 return report;
               }
             if (negative == 0)
               {
+                report.history.push_back(rec);
                 report.converged = true;
+                hessian_current_ = true;
                 std::ostringstream s;
                 s << "    Newton " << std::setw(2) << it << ": E = " << std::scientific << std::setprecision(6)
                   << e.total() << " J, |R| = " << std::setprecision(2) << r << " N, stable (0 negative pivots)\n";
                 say(s.str());
                 return report;
               }
-            if (report.saddle_escapes++ >= settings_.max_saddle_escapes ||
-                !escape_saddle(state, e.total(), level, shift))
+            if (report.saddle_escapes++ >= settings_.max_saddle_escapes)
               {
+                report.history.push_back(rec);
                 report.message = "converged to a saddle point (" + std::to_string(negative) +
                                  " negative pivots) and could not leave it";
                 return report;
               }
             say("    Newton: saddle point (" + std::to_string(negative) +
-                " negative pivots) left along negative curvature\n");
-            continue;
+                " negative pivots), stepping along negative curvature\n");
           }
         if (it == settings_.max_iterations)
           break;
-
-        double       step  = 0.0;
-        const bool   ok    = line_search(state, direction, e.total(), slope, level, step);
-        rec.step_length    = step;
+        // The first radius: the Newton step where H is positive definite, else the scaled gradient
+        // step (or, at a saddle where g = 0, a step whose energy norm is a thousandth of the energy).
+        if (radius < 0.0)
+          radius = negative == 0 ? subproblem.newton_length() :
+                                   std::max(subproblem.gradient_length(), 1e-3 * std::sqrt(energy_scale(e)));
+        const double round_off = 1e-13 * energy_scale(e);
+        while (true)
+          {
+            const TrustRegionStep step = subproblem.solve(radius);
+            trial                      = state;
+            trial += step.step;
+            system_.constraints().distribute(trial);
+            const double actual = e.total() - energy_at(trial, level);
+            // Below round-off of the energy the ratio means nothing: accept a step that does not raise it.
+            const double ratio = step.predicted_decrease > round_off ? actual / step.predicted_decrease :
+                                 actual >= -10.0 * round_off     ? 1.0 :
+                                                                   -1.0;
+            rec.radius      = radius;
+            rec.shift       = step.multiplier;
+            rec.step_length = step.length;
+            radius          = updated_radius(radius, ratio, step.length);
+            if (ratio >= settings_.acceptance_ratio)
+              {
+                state = trial;
+                break;
+              }
+            if (++rec.rejected_steps > 60 || !(radius > 0.0))
+              {
+                report.history.push_back(rec);
+                std::ostringstream s;
+                s << "the trust region shrank to " << std::scientific << std::setprecision(3) << radius
+                  << " √J without an energy decrease (last residual " << r
+                  << " N): the energy is not smooth at this accuracy";
+                report.message        = s.str();
+                report.factorizations = subproblem.factorizations();
+                return report;
+              }
+          }
         report.history.push_back(rec);
         std::ostringstream s;
         s << "    Newton " << std::setw(2) << it << ": E = " << std::scientific << std::setprecision(6) << e.total()
-          << " J, |R| = " << std::setprecision(2) << r << " N, step " << std::defaultfloat << std::setprecision(3)
-          << step << (shift > 0 ? ", shift " : "") << (shift > 0 ? std::to_string(shift) : std::string()) << "\n";
+          << " J, |R| = " << std::setprecision(2) << r << " N, |p| = " << rec.step_length << ", radius " << radius
+          << ", λ = " << std::defaultfloat << std::setprecision(3) << rec.shift
+          << (rec.rejected_steps ? ", rejected " + std::to_string(rec.rejected_steps) : std::string())
+          << (negative ? ", negative pivots " + std::to_string(negative) : std::string()) << "\n";
         say(s.str());
-        if (!ok)
-          {
-            report.message = "the energy line search found no decrease (the Newton direction is not a descent "
-                             "direction at this accuracy)";
-            return report;
-          }
       }
     std::ostringstream s;
     s << "no convergence in " << settings_.max_iterations << " Newton iterations; last residual "
       << std::scientific << std::setprecision(3) << report.residual << " N against a tolerance of " << tolerance
       << " N";
-    report.message = s.str();
+    report.message        = s.str();
+    report.factorizations = subproblem.factorizations();
     return report;
   }
 } // namespace nappe

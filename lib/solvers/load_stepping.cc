@@ -1,6 +1,7 @@
 #include <deal.II/base/timer.h>
 
 #include <nappe/solvers/load_stepping.h>
+#include <nappe/solvers/path_tangent.h>
 
 #include <iomanip>
 #include <sstream>
@@ -35,12 +36,18 @@ namespace nappe
     double       lambda    = 0.0;
     double       step      = increment;
     Vector       last      = state;
+    Vector       tangent; // dU/dλ at the last certified state, once there is one
     while (lambda < 1.0 - 1e-12)
       {
         const double target = std::min(1.0, lambda + step);
         if (log)
           *log << "  load step " << path.steps.size() + 1 << ": λ = " << std::setprecision(4) << target << " ("
                << std::setprecision(3) << timer.wall_time() << " s elapsed)\n";
+        if (tangent.size() > 0)
+          {
+            state.add(target - lambda, tangent);
+            minimizer.system().constraints().distribute(state);
+          }
         MinimizerReport report = minimizer.minimize(state, LoadLevel(target, adhesion_factor), 0.0);
         path.newton_iterations += report.iterations;
         if (report.converged)
@@ -48,6 +55,8 @@ namespace nappe
             lambda = target;
             last   = state;
             path.steps.push_back({lambda, report});
+            if (settings.tangent_predictor && lambda < 1.0 - 1e-12)
+              tangent = path_tangent(minimizer, state, LoadLevel(lambda, adhesion_factor), PathParameter::load);
             continue;
           }
         state = last;

@@ -9,9 +9,21 @@
 
 namespace nappe
 {
+  /// How a path in Γ steps from one state to the next.
+  enum class ContinuationMethod
+  {
+    /// Tangent predictor, trust-region corrector, steps adapted from the corrector's work, folds
+    /// announced by the lowest curvature of the Hessian (follow_adhesion_path below).
+    predictor_corrector,
+    /// The earlier method: warm start from the last state, a step halved whenever the state changes
+    /// by more than the limits (kept for side-by-side comparison in benchmarks/adhesion_limits.cc).
+    bisection
+  };
+
   /// Step control of a path in the work of adhesion Γ (all Γ in J/m²).
   struct AdhesionPathSettings
   {
+    ContinuationMethod method = ContinuationMethod::predictor_corrector;
     double lowest_work_of_adhesion  = 0.01; ///< lower end of the Γ range [J/m²]
     double highest_work_of_adhesion = 1.0;  ///< upper end of the Γ range [J/m²]
     /// A state is "conformed" when its conformed fraction is at least this [-].
@@ -19,10 +31,11 @@ namespace nappe
     /// Jumps and crossings of the target are located to a bracket [Γ₁, Γ₂] with ln(Γ₂/Γ₁) ≤ this [-].
     double relative_tolerance = 2e-3;
     double initial_step       = 0.05; ///< first step in ln Γ [-]
-    double largest_step       = 0.1;  ///< largest step in ln Γ [-]
-    /// A step stays on the branch only if the conformed fraction changes by at most this [-] ...
+    double largest_step       = 0.5;  ///< largest step in ln Γ [-]
+    /// A step stays on the branch only if the conformed fraction differs from that of the predicted
+    /// state (bisection: of the previous state) by at most this [-] ...
     double largest_fraction_change = 0.02;
-    /// ... and the deflection by at most this times the equilibrium gap h₀ of the law [-].
+    /// ... and the deflection nowhere by more than this times the equilibrium gap h₀ of the law [-].
     double largest_deflection_change = 1.0;
     /// Γ values every path lands on exactly (for tables at given Γ) [J/m²].
     std::vector<double> stops;
@@ -47,6 +60,8 @@ namespace nappe
     std::vector<std::string> names; ///< the names of StateSummary::values, with their units
     std::function<StateSummary(const SheetSystem &system, const Vector &ghosted_state, const LoadLevel &level)>
       measure;
+    /// The conformed fraction alone (of a predicted state); if empty, measure() is used.
+    std::function<double(const SheetSystem &system, const Vector &ghosted_state, const LoadLevel &level)> fraction;
   };
 
   /// A certified stable state on a path, per unit projected area of the sheet.
@@ -59,6 +74,9 @@ namespace nappe
     unsigned int        newton_iterations = 0;
     /// Reached from the previous point by a jump (snap-through): the branch ended between them.
     bool after_jump = false;
+    /// Lowest eigenvalue μ₁ of H v = μ diag|H| v at this state (predictor–corrector paths; 0 < μ₁ ≤ 1,
+    /// tending to 0 at a fold); negative if not computed [-].
+    double lowest_curvature = -1.0;
   };
 
   /**
@@ -81,8 +99,7 @@ namespace nappe
   };
 
   /**
-   * Follows the equilibrium of a sheet on its substrate while Γ varies over the settings' range,
-   * warm-starting every minimisation from the last certified state.
+   * Follows the equilibrium of a sheet on its substrate while Γ varies over the settings' range.
    *
    * @p start = grown_conformal: the sheet starts on the surface at the highest Γ and Γ is lowered
    * (the conformed branch and what follows when it lets go); laid_down: the sheet starts flat above
@@ -91,12 +108,22 @@ namespace nappe
    * factor c = Γ/Γ_problem of the LoadLevel, so the law keeps its shape (AdhesionLaw's Γ-linearity).
    * Every certified state is measured by @p measure.
    *
-   * Step control: a step is accepted when the minimiser certifies a stable minimum and the state
-   * stayed on the branch (fraction change ≤ largest_fraction_change, max |Δw| ≤
-   * largest_deflection_change·h₀). A step that leaves the branch, or crosses the target fraction,
-   * is halved until it is within relative_tolerance; then the jump (or crossing) is accepted and
-   * recorded. Small steps near a fold keep Newton on the branch up to the fold, where large steps
-   * followed by bisection would let it leave early.
+   * Predictor–corrector (default; docs/theory.md, "Adhesion limits"): from a certified state U at Γ,
+   * the predictor is U + ΔΓ·dU/dΓ (path_tangent(), one solve with the factorisation the corrector
+   * already has) and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
+   * branch if it is certified and differs from the prediction by at most largest_deflection_change·h₀
+   * in w and largest_fraction_change in conformed fraction. The next step is scaled from the
+   * corrector's work (its iterations and its distance, which grows with the step squared). Each
+   * accepted state's lowest curvature μ₁ (StabilityCertificate::lowest_eigenpair) announces a fold:
+   * with μ₁² linear in ln Γ near a saddle-node, two states extrapolate the fold's position, and the
+   * steps are placed to bracket it. A trial that leaves the branch or crosses the target fraction
+   * opens a bracket, refined (by the fold or crossing estimate, else by bisection) until its width
+   * in ln Γ is at most relative_tolerance; the jump is then confirmed from the last state on the
+   * branch and recorded (after_jump). The fold lies inside the recorded bracket: that width is the
+   * error of its location.
+   *
+   * Bisection (the earlier method): warm starts from the last state, a step is halved whenever the
+   * state changes by more than the limits, until it is within relative_tolerance.
    */
   AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
                                     const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,

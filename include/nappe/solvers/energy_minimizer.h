@@ -9,8 +9,19 @@
 
 namespace nappe
 {
+  /// How a Newton iteration is globalised.
+  enum class MinimizerMethod
+  {
+    /// Trust region with the Moré–Sorensen step (trust_region_step.h): follows negative curvature.
+    trust_region,
+    /// The earlier method: shift H + μ·diag|H| until positive definite, then an energy line search
+    /// (kept for side-by-side comparison in benchmarks/adhesion_limits.cc).
+    line_search
+  };
+
   struct MinimizerSettings
   {
+    MinimizerMethod method = MinimizerMethod::trust_region;
     unsigned int max_iterations = 80;
     /// Converged when ‖R‖ ≤ relative_tolerance · (force scale) + absolute_tolerance.
     double relative_tolerance = 1e-9;
@@ -18,6 +29,9 @@ namespace nappe
     double armijo_slope       = 1e-4; ///< sufficient decrease constant of the energy line search
     unsigned int max_backtracks     = 40;
     unsigned int max_saddle_escapes = 8;
+    /// Trust region: a step is accepted when the energy decrease is at least this share of the
+    /// decrease the quadratic model predicts (η of Nocedal & Wright 2006, Algorithm 4.1) [-].
+    double acceptance_ratio = 1e-4;
   };
 
   /// One Newton iteration as printed in the convergence history.
@@ -26,9 +40,11 @@ namespace nappe
     unsigned int iteration       = 0;
     double       energy          = 0.0; ///< [J]
     double       residual        = 0.0; ///< ‖R‖ [N]
-    double       step_length     = 0.0; ///< line-search factor α
-    double       shift           = 0.0; ///< Hessian shift μ (relative to its diagonal)
+    double       step_length     = 0.0; ///< line-search factor α; trust region: ‖p‖_S of the accepted step [√J]
+    double       shift           = 0.0; ///< Hessian shift μ, or the multiplier λ of the step (relative to diag|H|)
     unsigned int negative_pivots = 0;   ///< negative eigenvalues of the unshifted Hessian
+    double       radius          = 0.0; ///< trust radius Δ the step was taken with [√J]
+    unsigned int rejected_steps  = 0;   ///< trust-region steps tried and rejected before the accepted one
   };
 
   struct MinimizerReport
@@ -44,22 +60,27 @@ namespace nappe
     /// (for LDLᵀ: its negative pivots, Sylvester's law of inertia); 0 certifies a strict local minimum.
     unsigned int negative_pivots = 0;
     unsigned int saddle_escapes  = 0;
+    unsigned int factorizations  = 0; ///< factorisations (HessianSolver::prepare) this minimisation used
     std::vector<IterationRecord> history;
   };
 
   /**
-   * Finds a stable equilibrium (a local minimum of the energy) by Newton's method with
-   * safeguards for non-convex energies:
-   *  - inertia control: the stability certificate counts the Hessian's negative eigenvalues; if
-   *    there are any it is shifted, H + μ·diag|H|, with μ increased until the count is zero, so
-   *    that the step is a descent direction (Nocedal & Wright, Numerical Optimization, 2nd ed.,
-   *    2006, §3.4, "modified Newton with a shift");
-   *  - a backtracking line search on the energy itself (Armijo condition), never on ‖R‖;
-   *  - negative-curvature escape: a state with a small residual whose Hessian still has negative
-   *    pivots is a saddle, never reported; the solver moves along the eigenvector of the most
-   *    negative curvature (inverse iteration with the shifted factorisation) to lower energy.
-   * On return the state is a certified local minimum, or the report says why not. The linear solves
-   * and the certificate come through the solver seam (hessian_solver.h).
+   * Finds a stable equilibrium (a local minimum of the energy) by Newton's method globalised for
+   * non-convex energies (MinimizerSettings::method):
+   *  - trust region (default): each iteration minimises the quadratic model within ‖p‖_S ≤ Δ,
+   *    S = diag|H|, by the Moré–Sorensen method (MoreSorensenSubproblem), which takes the direction
+   *    of negative curvature where H is indefinite (an adhesion front, a buckle, a saddle); the
+   *    step is accepted if the energy falls by at least acceptance_ratio times the predicted
+   *    decrease, and Δ is updated from that ratio ρ (ρ < ¼: Δ = ¼‖p‖; ρ > ¾ on the boundary: Δ = 2Δ;
+   *    Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, Algorithm 4.1). A state whose
+   *    residual is small but whose Hessian is indefinite is a saddle; the step there is the
+   *    hard case of the subproblem, along the lowest eigenvector (counted as a saddle escape).
+   *  - line search (kept for comparison): shift H + μ·diag|H| until the certificate finds no negative
+   *    eigenvalue (N&W §3.4), backtrack on the energy (Armijo), escape saddles along the eigenvector
+   *    of most negative curvature.
+   * On return the state is a certified local minimum (the certificate finds no negative eigenvalue
+   * of the unshifted Hessian at it), or the report says why not. The linear solves and the
+   * certificate come through the solver seam (hessian_solver.h).
    */
   class EnergyMinimizer
   {
@@ -73,13 +94,35 @@ namespace nappe
     MinimizerReport minimize(Vector &state, const LoadLevel &level, double force_scale);
 
     const SheetSystem &system() const { return system_; }
+    const MinimizerSettings &settings() const { return settings_; }
+
+    /**
+     * After a minimize() that converged: @p solution = H⁻¹ @p rhs with the Hessian H at the returned
+     * state, whose factorisation the last iteration prepared (no new factorisation). For tangents of
+     * a path: dU/dp = −H⁻¹ ∂R/∂p. Throws if the last minimize() did not converge.
+     */
+    void solve_with_hessian(const Vector &rhs, Vector &solution) const;
+
+    /**
+     * After a minimize() that converged: the lowest eigenpair of H v = μ S v at the returned state,
+     * S = diag|H| (μ ∈ (0, 1]; μ → 0 at a fold), from the stability certificate, warm-started from the
+     * previous vector. available = false if the certificate does not offer it.
+     */
+    LowestEigenpair lowest_curvature();
 
   private:
-    unsigned int factorize_positive_definite(double &shift);
+    MinimizerReport minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale);
+    MinimizerReport minimize_line_search(Vector &state, const LoadLevel &level, double force_scale);
+    void         set_scaling(const SparseMatrix &H);
+    unsigned int factorize_positive_definite(double &shift, unsigned int &factorizations);
     bool         line_search(Vector &state, const Vector &direction, double energy, double slope,
                              const LoadLevel &level, double &step);
     bool         escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift);
     double       energy_at(const Vector &owned_state, const LoadLevel &level) const;
+    /// Σ|energy parts|: the scale of round-off in the total energy [J].
+    static double energy_scale(const EnergyParts &e);
+    double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
+    std::string  stalled_message(double residual, double physical) const;
 
     SheetSystem          &system_;
     MinimizerSettings     settings_;
@@ -87,6 +130,10 @@ namespace nappe
     HessianSolvers        solvers_;
     Vector                residual_;
     Vector                diagonal_;
+    Vector                magnitude_;
+    Vector                seed_;     ///< smooth, rank-independent field (starts of eigenvector searches)
+    Vector                eigenvector_; ///< the last lowest eigenvector (warm start)
     double                last_shift_ = 1e-4; ///< the last shift that made the Hessian positive definite
+    bool                  hessian_current_ = false; ///< the prepared factorisation is H at the last result
   };
 } // namespace nappe

@@ -32,6 +32,16 @@ namespace nappe
     virtual std::string name() const = 0;
   };
 
+  /// The lowest eigenvalue of a Hessian pencil and its vector (StabilityCertificate::lowest_eigenpair).
+  struct LowestEigenpair
+  {
+    bool         available = false; ///< the certificate offers it
+    double       value     = 0.0;   ///< Rayleigh quotient μ = vᵀHv/vᵀSv, an upper bound of μ₁ [-]
+    double       error     = 0.0;   ///< residual bound ‖Hv − μSv‖_{S⁻¹}: some eigenvalue lies within it [-]
+    unsigned int iterations = 0;
+    Vector       vector; ///< v, vᵀSv = 1
+  };
+
   /**
    * StabilityCertificate: the number of negative eigenvalues of H. Zero certifies that a stationary
    * state is a strict local minimum (second-order sufficient condition, Nocedal & Wright, Numerical
@@ -48,6 +58,18 @@ namespace nappe
      * work with a HessianSolver reuses that solver's last prepare(H) of the same, unmodified matrix.
      */
     virtual unsigned int negative_eigenvalues(const SparseMatrix &H) = 0;
+
+    /**
+     * The lowest eigenpair of the pencil H v = μ S v, S = diag(@p weights) with positive weights, for
+     * a positive definite @p H (negative_eigenvalues(H) = 0): μ₁ and its vector, S-normalised
+     * (vᵀSv = 1). @p start is a guess of v (zero on constrained rows, not zero). μ₁ tending to zero
+     * along a path of minima marks a fold; its vector is the direction in which the branch turns.
+     * The result states an error bound: |μ − μ_j| ≤ ‖Hv − μSv‖_{S⁻¹} for some eigenvalue μ_j
+     * (residual bound for symmetric pencils, B. N. Parlett, The Symmetric Eigenvalue Problem, SIAM
+     * 1998, Theorem 4.5.1 applied to S^{-1/2}HS^{-1/2}). Collective. A certificate that cannot
+     * offer it returns available = false (the default).
+     */
+    virtual LowestEigenpair lowest_eigenpair(const SparseMatrix &H, const Vector &weights, const Vector &start);
 
     /// The name it is chosen by in the case file (Solver/Stability certificate).
     virtual std::string name() const = 0;

@@ -14,6 +14,8 @@ namespace nappe
     /// How many times in all the increment may be halved along the path before the solve gives up
     /// (after a cut the increment stays at its reduced size).
     unsigned int max_step_cuts = 6;
+    /// Start each step from the tangent predictor U + Δλ·dU/dλ (path_tangent.h) instead of the last state.
+    bool tangent_predictor = true;
   };
 
   struct LoadStep
@@ -37,8 +39,8 @@ namespace nappe
 
   /**
    * Follows the load path λ: 0 → 1 at the adhesion factor @p adhesion_factor, minimising the energy
-   * at each step from the previous (certified) state; a step that fails is retried with half the
-   * increment. @p state (owned) holds the last certified state on return; it is a result only if the
+   * at each step from the previous (certified) state, moved along the path's tangent dU/dλ if the
+   * settings ask for the tangent predictor; a step that fails is retried with half the increment. @p state (owned) holds the last certified state on return; it is a result only if the
    * report says converged.
    */
   LoadPathReport follow_load_path(EnergyMinimizer &minimizer, Vector &state, const LoadSteppingSettings &settings,

@@ -1,0 +1,101 @@
+#pragma once
+
+#include <nappe/solvers/hessian_solver.h>
+#include <nappe/solvers/sheet_system.h>
+
+namespace nappe
+{
+  /// A step of the trust-region subproblem and what it cost.
+  struct TrustRegionStep
+  {
+    Vector       step;                      ///< p (constrained entries zero)
+    double       predicted_decrease = 0.0;  ///< m(0) − m(p) = −gᵀp − ½pᵀHp [J]
+    double       length             = 0.0;  ///< ‖p‖_S [√J]
+    double       multiplier         = 0.0;  ///< λ ≥ 0 with (H + λS)p = −g, up to the hard-case term [-]
+    bool         negative_curvature = false; ///< H is indefinite: the step uses its negative curvature
+    unsigned int factorizations     = 0;    ///< factorisations of H + λS this step needed
+  };
+
+  /**
+   * The trust-region subproblem of a Newton iteration on the energy Π,
+   *
+   *     min m(p) = gᵀp + ½ pᵀHp   subject to   ‖p‖_S = √(pᵀSp) ≤ Δ,
+   *
+   * with g the gradient, H the (possibly indefinite) Hessian and S = diag(w) a positive scaling. With
+   * S = diag|H| the norm is the energy norm of the Jacobi approximation of H, so Δ² measures energy
+   * [J] and the scaling follows the stiffness of each unknown (membrane, bending, adhesion).
+   *
+   * Solved by the method of J. J. Moré & D. C. Sorensen, "Computing a trust region step", SIAM J.
+   * Sci. Stat. Comput. 4, 553–572 (1983): p solves (H + λS)p = −g with H + λS positive semidefinite
+   * and λ(Δ − ‖p‖_S) = 0. λ is found by Newton's method on the secular equation 1/‖p(λ)‖_S = 1/Δ
+   * (their eq. 3.6: λ⁺ = λ + (‖p‖/‖q‖)²(‖p‖ − Δ)/Δ, with ‖q‖² = (Sp)ᵀ(H + λS)⁻¹(Sp)), safeguarded by
+   * bounds λ_L ≤ λ* ≤ λ_U; every trial λ is one factorisation of H + λS, and the stability certificate
+   * (its inertia) tells whether H + λS is positive definite. In the hard case (g nearly orthogonal to
+   * the lowest eigenvector, e.g. at a saddle where g = 0) a multiple of the lowest eigenvector z of
+   * (H + λS, S) is added to reach the boundary; z comes from the certificate (inverse iteration with
+   * the factorisation for LDLᵀ). A step is accepted when |‖p‖_S − Δ| ≤ σ₁Δ (σ₁ = 0.1, Moré & Sorensen's
+   * value), or in the hard case when τ²zᵀ(H + λS)z ≤ σ₁(2 − σ₁)(pᵀ(H + λS)p + λΔ²) (their eq. 3.12),
+   * which guarantees a model decrease within a factor (1 − σ₁)² of the optimum.
+   *
+   * Everything goes through the solver seam (HessianSolver, StabilityCertificate); the hard case needs
+   * a certificate that offers lowest_eigenpair() (without one the step falls back to the positive
+   * definite solution scaled to the boundary). H is shifted in place while a step is computed; after
+   * set_point() and before the first solve() the prepared factorisation is that of H itself.
+   */
+  class MoreSorensenSubproblem
+  {
+  public:
+    /// @p seed: a rank-independent start for the eigenvector (constrained entries zero).
+    MoreSorensenSubproblem(HessianSolvers solvers, const Vector &seed);
+
+    /**
+     * A new point: factorises @p H and returns its number of negative eigenvalues (the certificate);
+     * numbers::invalid_unsigned_int if H is singular. @p H, @p gradient and @p weights (S, positive)
+     * must stay alive and unchanged (except through this class) until the next set_point().
+     */
+    unsigned int set_point(SparseMatrix &H, const Vector &gradient, const Vector &weights);
+
+    /// The step for the radius @p radius [√J] at the current point.
+    TrustRegionStep solve(double radius);
+
+    /// ‖H⁻¹g‖_S, the length of the Newton step, if H is positive definite; otherwise a negative number.
+    double newton_length() const { return newton_length_; }
+
+    /// gᵀH⁻¹g, twice the decrease the Newton step predicts, if H is positive definite; else −1 [J].
+    double newton_decrement() const { return newton_decrement_; }
+
+    /// √(gᵀS⁻¹g), the length of the scaled steepest-descent step of unit multiplier [√J].
+    double gradient_length() const { return gradient_length_; }
+
+    /// Factorisations since construction.
+    unsigned int factorizations() const { return factorizations_; }
+
+  private:
+    bool   factorize_at(double lambda, unsigned int &count);
+    void   shift_to(double lambda);
+    double diagonal_dominance_shift() const;
+    double scaled_norm(const Vector &v) const;
+    void   solve_shifted(const Vector &rhs, Vector &x) const;
+    LowestEigenpair lowest_shifted_eigenpair();
+    double model_decrease(const Vector &p) const;
+    Vector to_boundary(const Vector &p, const LowestEigenpair &z, double radius) const;
+
+    HessianSolvers solvers_;
+    Vector         seed_;
+    SparseMatrix  *H_        = nullptr;
+    const Vector  *gradient_ = nullptr;
+    const Vector  *weights_  = nullptr;
+    double         shift_    = 0.0; ///< λ currently added to H
+    bool           prepared_ = false; ///< the factorisation is of H + shift_·S
+    unsigned int   inertia_  = 0;     ///< negative eigenvalues of the unshifted H
+    double         lower_    = 0.0;   ///< λ_L from positive definiteness: λ* ≥ lower_ for every radius
+    double         gershgorin_ = 0.0; ///< H + λS is diagonally dominant, hence positive definite, for λ > this
+    Vector         newton_step_;           ///< −H⁻¹g if H is positive definite
+    double         newton_length_   = -1.0;
+    double         newton_decrement_ = -1.0;
+    double         gradient_length_ = 0.0;
+    double         last_multiplier_ = 0.0; ///< warm start of λ
+    Vector         eigenvector_;           ///< the last lowest eigenvector (warm start of the inverse iteration)
+    unsigned int   factorizations_ = 0;
+  };
+} // namespace nappe

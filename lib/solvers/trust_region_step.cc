@@ -1,0 +1,262 @@
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/numbers.h>
+
+#include <nappe/solvers/symmetric_direct_solver.h>
+#include <nappe/solvers/trust_region_step.h>
+
+#include <algorithm>
+#include <cmath>
+
+namespace nappe
+{
+  namespace
+  {
+    /// σ₁ of Moré & Sorensen (1983): accept ‖p‖_S within (1 ± σ₁)Δ; their experiments use 0.1.
+    const double boundary_accuracy = 0.1;
+    /// Factorisations one step may use before it settles for the best positive definite solution
+    /// (common practice, no source; most steps need one to three).
+    const unsigned int max_factorizations = 10;
+
+    /// The safeguarded next λ inside (lower, upper) when the Newton update of λ is not usable
+    /// (Moré & Sorensen 1983, §3: λ = max(√(λ_L λ_U), 10⁻³λ_U); here with a floor a little above λ_L).
+    double safeguarded(double lower, double upper)
+    {
+      return std::max(std::sqrt(std::max(lower, 0.0) * upper), lower + 0.05 * (upper - lower));
+    }
+  } // namespace
+
+  MoreSorensenSubproblem::MoreSorensenSubproblem(HessianSolvers solvers, const Vector &seed)
+    : solvers_(std::move(solvers))
+    , seed_(seed)
+    , newton_step_(seed)
+    , eigenvector_(seed)
+  {
+  }
+
+  void MoreSorensenSubproblem::shift_to(double lambda)
+  {
+    if (lambda == shift_)
+      return;
+    for (const auto i : weights_->locally_owned_elements())
+      H_->add(i, i, (lambda - shift_) * (*weights_)(i));
+    H_->compress(dealii::VectorOperation::add);
+    shift_    = lambda;
+    prepared_ = false;
+  }
+
+  // A singular H + λS (MUMPS error −10, e.g. exactly at a fold or along a symmetry) counts as not
+  // positive definite: λ is then a lower bound of λ*.
+  bool MoreSorensenSubproblem::factorize_at(double lambda, unsigned int &count)
+  {
+    shift_to(lambda);
+    ++factorizations_;
+    try
+      {
+        solvers_.solver->prepare(*H_);
+        count = solvers_.certificate->negative_eigenvalues(*H_);
+      }
+    catch (const DirectSolverError &e)
+      {
+        if (e.mumps_error() != -10)
+          throw;
+        count = dealii::numbers::invalid_unsigned_int;
+        return false;
+      }
+    prepared_ = true;
+    return count == 0;
+  }
+
+  // Gershgorin: H + λS is strictly diagonally dominant with a positive diagonal, hence positive
+  // definite, once H_ii + λS_i > Σ_{j≠i}|H_ij| in every row.
+  double MoreSorensenSubproblem::diagonal_dominance_shift() const
+  {
+    double shift = 0.0;
+    for (const auto i : weights_->locally_owned_elements())
+      {
+        double off = 0.0, diagonal = 0.0;
+        for (auto entry = H_->begin(i); entry != H_->end(i); ++entry)
+          if (entry->column() == i)
+            diagonal += entry->value();
+          else
+            off += std::abs(entry->value());
+        shift = std::max(shift, (off - diagonal) / (*weights_)(i));
+      }
+    return dealii::Utilities::MPI::max(shift, weights_->get_mpi_communicator());
+  }
+
+  double MoreSorensenSubproblem::scaled_norm(const Vector &v) const
+  {
+    Vector Sv = v;
+    Sv.scale(*weights_);
+    return std::sqrt(std::max(0.0, v * Sv));
+  }
+
+  void MoreSorensenSubproblem::solve_shifted(const Vector &rhs, Vector &x) const { solvers_.solver->solve(rhs, x); }
+
+  LowestEigenpair MoreSorensenSubproblem::lowest_shifted_eigenpair()
+  {
+    LowestEigenpair z = solvers_.certificate->lowest_eigenpair(*H_, *weights_, eigenvector_);
+    if (z.available)
+      {
+        // A rank-independent orientation (the seed is built from coordinates).
+        if (z.vector * seed_ < 0)
+          z.vector *= -1.0;
+        eigenvector_ = z.vector;
+      }
+    return z;
+  }
+
+  double MoreSorensenSubproblem::model_decrease(const Vector &p) const
+  {
+    Vector Hp = p, Sp = p;
+    H_->vmult(Hp, p); // (H + shift·S) p
+    Sp.scale(*weights_);
+    const double pHp = p * Hp - shift_ * (p * Sp);
+    return -((*gradient_) * p + 0.5 * pHp);
+  }
+
+  unsigned int MoreSorensenSubproblem::set_point(SparseMatrix &H, const Vector &gradient, const Vector &weights)
+  {
+    H_        = &H;
+    gradient_ = &gradient;
+    weights_  = &weights;
+    shift_    = 0.0;
+    lower_    = 0.0;
+    gershgorin_ = diagonal_dominance_shift();
+    Vector scaled = gradient;
+    for (const auto i : scaled.locally_owned_elements())
+      scaled(i) /= weights(i);
+    scaled.compress(dealii::VectorOperation::insert);
+    gradient_length_ = std::sqrt(std::max(0.0, scaled * gradient));
+    unsigned int count = 0;
+    newton_length_     = -1.0;
+    newton_decrement_  = -1.0;
+    if (factorize_at(0.0, count))
+      {
+        solve_shifted(gradient, newton_step_);
+        newton_step_ *= -1.0;
+        newton_length_    = scaled_norm(newton_step_);
+        newton_decrement_ = -(gradient * newton_step_);
+      }
+    inertia_ = count;
+    return count;
+  }
+
+  // The boundary point p + τz, ‖p + τz‖_S = Δ, of the two that gives the lower model value
+  // (Moré & Sorensen 1983, §3, the hard case).
+  Vector MoreSorensenSubproblem::to_boundary(const Vector &p, const LowestEigenpair &z, double radius) const
+  {
+    Vector Sz = z.vector;
+    Sz.scale(*weights_);
+    const double b = p * Sz, np = scaled_norm(p);
+    const double root = std::sqrt(std::max(0.0, b * b + radius * radius - np * np));
+    Vector       best = p, trial = p;
+    best.add(-b + root, z.vector);
+    trial.add(-b - root, z.vector);
+    return model_decrease(trial) > model_decrease(best) ? trial : best;
+  }
+
+  TrustRegionStep MoreSorensenSubproblem::solve(double radius)
+  {
+    TrustRegionStep out;
+    out.negative_curvature    = inertia_ != 0;
+    const unsigned int start  = factorizations_;
+    const auto         finish = [&](const Vector &p, double lambda) {
+      out.step               = p;
+      out.multiplier         = lambda;
+      out.length             = scaled_norm(p);
+      out.predicted_decrease = model_decrease(p);
+      out.factorizations     = factorizations_ - start;
+      if (lambda > 0)
+        last_multiplier_ = lambda;
+      return out;
+    };
+    if (inertia_ == 0 && newton_length_ <= (1 + boundary_accuracy) * radius)
+      return finish(newton_step_, 0.0);
+
+    double lower = lower_, upper = std::max(gershgorin_, 0.0) + gradient_length_ / radius;
+    Vector p = newton_step_, w = newton_step_, Sp = newton_step_;
+    double lambda   = 0.0;
+    bool   have_p   = inertia_ == 0 && shift_ == 0.0 && prepared_; // the Newton step at λ = 0
+    bool   eigen_known = false;
+    Vector best_p;
+    double best_lambda = -1.0;
+    if (!have_p)
+      lambda = std::min(std::max(last_multiplier_, lower), upper);
+    while (factorizations_ - start < max_factorizations)
+      {
+        if (!have_p)
+          {
+            unsigned int count = 0;
+            if (!factorize_at(lambda, count))
+              {
+                lower = lower_ = std::max(lower, lambda);
+                lambda         = safeguarded(lower, upper);
+                continue;
+              }
+            solve_shifted(*gradient_, p);
+            p *= -1.0;
+          }
+        have_p          = false;
+        const double np = scaled_norm(p);
+        best_p          = p;
+        best_lambda     = lambda;
+        if (np <= (1 + boundary_accuracy) * radius && (lambda == 0.0 || np >= (1 - boundary_accuracy) * radius))
+          return finish(p, lambda);
+        // An indefinite H: the lowest eigenvalue of H + λS bounds λ* from below (λ* ≥ −μ₁ ≥ λ − μ(z)).
+        LowestEigenpair z;
+        if (np < radius || (inertia_ != 0 && !eigen_known))
+          {
+            z           = lowest_shifted_eigenpair();
+            eigen_known = z.available;
+            if (z.available)
+              lower = lower_ = std::max(lower, lambda - z.value);
+          }
+        const bool interior = np < radius;
+        if (interior)
+          {
+            upper = std::min(upper, lambda);
+            if (z.available)
+              {
+                const Vector q    = to_boundary(p, z, radius);
+                Vector       taus = q;
+                taus -= p; // τz, and ‖z‖_S = 1
+                const double tau = scaled_norm(taus);
+                // Moré & Sorensen (1983), eq. 3.12, with pᵀ(H + λS)p = −gᵀp.
+                if (tau * tau * z.value <=
+                    boundary_accuracy * (2 - boundary_accuracy) * (-((*gradient_) * p) + lambda * radius * radius))
+                  return finish(q, lambda);
+              }
+          }
+        else
+          lower = std::max(lower, lambda);
+        // Newton's method on 1/‖p(λ)‖_S = 1/Δ.
+        Sp = p;
+        Sp.scale(*weights_);
+        solve_shifted(Sp, w);
+        const double q2   = Sp * w;
+        const double next = q2 > 0 ? lambda + (np * np / q2) * (np - radius) / radius : -1.0;
+        if (next > lower && next < upper)
+          lambda = next;
+        else if (interior && eigen_known)
+          lambda = lower + 0.1 * (upper - lower); // the hard case: λ_L ≈ −μ₁ is sharp, approach it
+        else
+          lambda = safeguarded(lower, upper);
+      }
+    // Out of factorisations: the last positive definite solution, cut back to the region; failing
+    // that, the scaled steepest descent step to the boundary (a descent direction either way).
+    if (best_lambda >= 0.0)
+      {
+        const double np = scaled_norm(best_p);
+        if (np > radius)
+          best_p *= radius / np;
+        return finish(best_p, best_lambda);
+      }
+    Vector d = *gradient_;
+    for (const auto i : d.locally_owned_elements())
+      d(i) /= -(*weights_)(i);
+    d.compress(dealii::VectorOperation::insert);
+    d *= radius / std::max(gradient_length_, 1e-300);
+    return finish(d, upper);
+  }
+} // namespace nappe
