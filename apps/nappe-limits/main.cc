@@ -1,10 +1,12 @@
 // nappe-limits: the works of adhesion that decide whether a sheet stays on a topography —
-// Γ_hold, Γ_eq and Γ_snap with their brackets and the Γ–fraction/energy curves — and, if the
-// case asks for it, a fabrication check over an interface's range of Γ.
+// Γ_hold, Γ_eq and Γ_snap with their brackets, the transitions (jumps) along both Γ paths and the
+// Γ–fraction/energy curves — and, if the case asks for it, a fabrication check over an interface's
+// range of Γ.
 //
 // Sample runs:
-//   nappe-limits --demo                                  built-in demo: graphene on a 1D grating
+//   nappe-limits --demo                                  built-in demo: graphene on a 1D grating, with hysteresis
 //   nappe-limits case.prm --set "Adhesion limits/Lowest work of adhesion=0.05"
+//   nappe-limits case.prm --quiet                        no progress lines, only the summary
 //   mpirun -np 2 nappe-limits case.prm                   distributed (each path on all ranks)
 //   nappe-limits --print-defaults                        every parameter, documented, with its unit
 #include <nappe/runs/app_driver.h>
@@ -13,22 +15,25 @@
 #include <deal.II/base/mpi.h>
 
 #include <iostream>
+#include <string>
+#include <vector>
 
 namespace
 {
-  // Demo scenario (our own): graphene transferred onto a SiO2 grating of period 20 nm and
-  // amplitude 2 nm; which works of adhesion hold it down, and is there hysteresis?
+  // Demo scenario (our own): graphene transferred onto a SiO2 grating of period 40 nm and depth
+  // 2 nm, held at zero mean strain. A laid-down sheet needs Γ_snap to be pulled in, a conformed one
+  // lets go only below Γ_hold < Γ_snap: the loop between them is the hysteresis of the transfer.
   const char *demo_case = R"(
 subsection Case
-  set Title = demo: graphene on a 20 nm SiO2 grating, adhesion thresholds
+  set Title = demo: graphene on a 40 nm SiO2 grating, adhesion thresholds and hysteresis
 end
 subsection Sheet
   set Material = graphene
 end
 subsection Domain
   set Shape = rectangle
-  set Length x = 20
-  set Length y = 1.25
+  set Length x = 40
+  set Length y = 2.5
   set Periodic = true
   set Coarse cells x = 16
   set Coarse cells y = 1
@@ -44,7 +49,7 @@ subsection Topography
   set Type = sinusoidal grating
   subsection Sinusoidal grating
     set Amplitude = 2
-    set Wavelength = 20
+    set Wavelength = 40
   end
 end
 subsection Adhesion
@@ -52,8 +57,8 @@ subsection Adhesion
   set Equilibrium separation = 0.5
 end
 subsection Adhesion limits
-  set Lowest work of adhesion = 0.02
-  set Highest work of adhesion = 2
+  set Lowest work of adhesion = 0.05
+  set Highest work of adhesion = 1
 end
 subsection Fabrication check
   set Enabled = true
@@ -71,19 +76,30 @@ end
 
 int main(int argc, char **argv)
 {
+  // --quiet (run control, not physics): no progress lines, only the summary. Taken out before the
+  // shared argument handling.
+  std::vector<char *> args;
+  bool                quiet = false;
+  for (int i = 0; i < argc; ++i)
+    if (i > 0 && std::string(argv[i]) == "--quiet")
+      quiet = true;
+    else
+      args.push_back(argv[i]);
+  const int kept = static_cast<int>(args.size());
+  args.push_back(nullptr); // argv[argc] is a null pointer (MPI_Init relies on it)
   nappe::CaseApp app;
   app.name        = "nappe-limits";
   app.description = "follows the equilibrium while the work of adhesion is lowered from the conformed state and "
                     "raised from the laid-down state, and reports Gamma_hold, Gamma_eq and Gamma_snap with their "
-                    "brackets (and, if the case asks, a fabrication check); writes <stem>_limits.json and "
-                    "<stem>_adhesion_paths.csv.";
+                    "brackets, the transitions (jumps) along both paths (and, if the case asks, a fabrication "
+                    "check); writes <stem>_limits.json and <stem>_adhesion_paths.csv. --quiet: no progress lines.";
   app.demo_case       = demo_case;
   app.result_suffixes = {"_limits.json", "_adhesion_paths.csv"};
   app.plot_script = "plot_limits.py";
-  app.run = [](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm) {
+  app.run = [quiet](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm) {
     const bool             root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const nappe::LimitsRun run  = nappe::run_adhesion_limits(prm, c, comm, root ? &std::cout : nullptr);
+    const nappe::LimitsRun run  = nappe::run_adhesion_limits(prm, c, comm, root ? &std::cout : nullptr, quiet);
     return nappe::CaseOutcome{run.complete() ? 0 : 2, true};
   };
-  return nappe::run_case_app(argc, argv, app);
+  return nappe::run_case_app(kept, args.data(), app);
 }

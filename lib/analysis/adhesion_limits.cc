@@ -151,6 +151,22 @@ namespace nappe
     limits.hold         = hold_threshold(limits.lowering, s.target_fraction);
     limits.snap         = snap_threshold(limits.raising, s.target_fraction);
     limits.equal_energy = equal_energy_threshold(limits.lowering, limits.raising, s.target_fraction, s.relative_tolerance);
+    for (const AdhesionPath *path : {&limits.lowering, &limits.raising})
+      for (const auto &t : find_transitions(*path, s.target_fraction))
+        limits.transitions.push_back(t);
+    limits.largest = largest_fraction({&limits.lowering, &limits.raising});
+    if (limits.largest.fraction < s.target_fraction && !limits.lowering.points.empty() &&
+        !limits.raising.points.empty())
+      {
+        std::ostringstream why;
+        why << std::setprecision(3) << "no state reaches the target conformed fraction " << 100 * s.target_fraction
+            << " %: the largest is " << 100 * limits.largest.fraction << " % ("
+            << (limits.largest.lowering ? "lowering" : "raising") << " path, Γ = " << limits.largest.work_of_adhesion
+            << " J/m²); the transitions tell how the sheet gets there";
+        for (AdhesionThreshold *t : {&limits.hold, &limits.snap, &limits.equal_energy})
+          if (!t->found)
+            t->how = why.str();
+      }
     return limits;
   }
 

@@ -5,6 +5,7 @@
 #include <nappe/io/json_writer.h>
 #include <nappe/io/limits_report.h>
 #include <nappe/io/text_table.h>
+#include <nappe/analysis/state_summary.h>
 #include <nappe/physics/adhesion_potential.h>
 
 #include <iomanip>
@@ -52,6 +53,56 @@ namespace nappe
       json.end_object();
     }
 
+    void write_transitions(JsonWriter &json, const AdhesionLimits &limits)
+    {
+      json.begin_array("transitions");
+      for (const auto &t : limits.transitions)
+        {
+          json.begin_object();
+          json.value("path", t.lowering ? "down" : "up");
+          json.quantity("gamma_lower", t.gamma_lower, "J/m^2");
+          json.quantity("gamma_upper", t.gamma_upper, "J/m^2");
+          json.value("kind", t.kind);
+          json.value("regime_before", regime_name(t.regime_before));
+          json.value("regime_after", regime_name(t.regime_after));
+          json.quantity("fraction_before", t.fraction_before, "1");
+          json.quantity("fraction_after", t.fraction_after, "1");
+          json.quantity("raised_contact_before", t.raised_before, "1");
+          json.quantity("raised_contact_after", t.raised_after, "1");
+          json.quantity("floor_contact_before", t.floor_before, "1");
+          json.quantity("floor_contact_after", t.floor_after, "1");
+          json.quantity("energy_released", t.energy_released, "J/m^2");
+          json.end_object();
+        }
+      json.end_array();
+    }
+
+    /// The transition (if any) that the path recorded on arriving at @p point.
+    const AdhesionTransition *transition_at(const AdhesionLimits &limits, const AdhesionPath &path,
+                                            const AdhesionPathPoint &point)
+    {
+      if (!point.after_jump)
+        return nullptr;
+      for (const auto &t : limits.transitions)
+        if (t.lowering == path.lowering && t.gamma_after() == point.work_of_adhesion)
+          return &t;
+      return nullptr;
+    }
+
+    std::string fixed(double v, int digits)
+    {
+      std::ostringstream s;
+      s << std::fixed << std::setprecision(digits) << v;
+      return s.str();
+    }
+
+    std::string significant(double v, int digits)
+    {
+      std::ostringstream s;
+      s << std::setprecision(digits) << v;
+      return s.str();
+    }
+
     void write_check(JsonWriter &json, const AdhesionLimits &limits, const FabricationCheck &check, double target)
     {
       json.begin_object("fabrication_check");
@@ -96,7 +147,7 @@ namespace nappe
       out << "path,gamma_J_per_m2,energy_J_per_m2,stretching_J_per_m2,bending_J_per_m2,adhesion_J_per_m2";
       for (const auto &name : limits.lowering.value_names)
         out << "," << name;
-      out << ",after_jump\n" << std::setprecision(10);
+      out << ",after_jump,lowest_curvature,transition,energy_released_J_per_m2\n" << std::setprecision(10);
       for (const auto *p : {&limits.lowering, &limits.raising})
         for (const auto &pt : p->points)
           {
@@ -105,7 +156,13 @@ namespace nappe
                 << pt.energy_per_area.substrate;
             for (const double v : pt.values)
               out << "," << v;
-            out << "," << (pt.after_jump ? 1 : 0) << "\n";
+            out << "," << (pt.after_jump ? 1 : 0) << ",";
+            if (pt.lowest_curvature >= 0)
+              out << pt.lowest_curvature;
+            if (const AdhesionTransition *t = transition_at(limits, *p, pt))
+              out << "," << t->kind << "," << t->energy_released << "\n";
+            else
+              out << ",,\n";
           }
     });
   }
@@ -139,6 +196,10 @@ namespace nappe
       if (limits.hold.found)
         json.quantity("margin_case_gamma_over_gamma_hold",
                       adhesion_of(c).law().work_of_adhesion() / limits.hold.value(), "1");
+      json.quantity("largest_conformed_fraction", limits.largest.fraction, "1");
+      json.quantity("largest_fraction_work_of_adhesion", limits.largest.work_of_adhesion, "J/m^2");
+      json.value("largest_fraction_path", limits.largest.lowering ? "down" : "up");
+      write_transitions(json, limits);
       write_path_statistics(json, "lowering_path", limits.lowering);
       write_path_statistics(json, "raising_path", limits.raising);
       if (check)
@@ -163,6 +224,11 @@ namespace nappe
     if (limits.hold.found)
       out << "  Case Γ = " << gamma << " J/m²: margin Γ/Γ_hold = " << gamma / limits.hold.value() << " ("
           << (gamma >= limits.hold.value() ? "holds a conformed sheet" : "does not hold a conformed sheet") << ")\n";
+    if (limits.largest.fraction < c.limits.target_fraction)
+      out << "  Largest conformed fraction reached: " << 100 * limits.largest.fraction << " % ("
+          << (limits.largest.lowering ? "lowering" : "raising") << " path, Γ = " << limits.largest.work_of_adhesion
+          << " J/m²)\n";
+    print_transitions(limits, out);
     for (const auto *p : {&limits.lowering, &limits.raising})
       {
         out << "  " << (p->lowering ? "Lowering" : "Raising ") << " path: " << p->points.size() << " states, "
@@ -171,16 +237,32 @@ namespace nappe
       }
   }
 
+  void print_transitions(const AdhesionLimits &limits, std::ostream &out)
+  {
+    if (limits.transitions.empty())
+      {
+        out << "  No jumps along either path (every change was continuous).\n";
+        return;
+      }
+    out << "  Transitions (the branch ends somewhere in the Γ bracket and the sheet jumps):\n";
+    std::vector<std::vector<std::string>> rows = {{"path", "Γ bracket [J/m²]", "kind", "conformed [%]",
+                                                   "raised + floor contact [%]", "released [J/m²]"}};
+    for (const auto &t : limits.transitions)
+      rows.push_back({t.lowering ? "lowering" : "raising",
+                      significant(t.gamma_lower, 4) + " – " + significant(t.gamma_upper, 4), t.kind,
+                      fixed(100 * t.fraction_before, 1) + " → " + fixed(100 * t.fraction_after, 1),
+                      fixed(100 * t.raised_before, 1) + " + " + fixed(100 * t.floor_before, 1) + " → " +
+                        fixed(100 * t.raised_after, 1) + " + " + fixed(100 * t.floor_after, 1),
+                      significant(t.energy_released, 3)});
+    print_table(rows, out, "    ");
+    out << std::defaultfloat << std::setprecision(4);
+  }
+
   void print_fabrication_check(const SheetCase &c, const AdhesionLimits &limits, const FabricationCheck &check,
                                std::ostream &out)
   {
     const double target = c.limits.target_fraction;
     const auto  &name   = c.problem.model.material.name;
-    const auto   fixed  = [](double v, int digits) {
-      std::ostringstream s;
-      s << std::fixed << std::setprecision(digits) << v;
-      return s.str();
-    };
     out << "\nFabrication check: " << name << " on " << adhesion_of(c).topography().description() << "\n";
     std::vector<std::vector<std::string>> rows = {{"Γ [J/m²]", "laid down (transfer)", "fraction", "peak strain",
                                                    "starting conformed", "fraction", "peak strain", "Γ/Γ_hold"}};

@@ -22,25 +22,27 @@ namespace nappe
     }
   } // namespace
 
-  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *log)
+  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *log,
+                                bool quiet)
   {
+    std::ostream *progress = quiet ? nullptr : log;
     AssertThrow(c.problem.model.adhesion(),
                 dealii::ExcMessage("Substrate/Enabled: nappe-limits needs a substrate (true)."));
     const AdhesionPathSettings settings =
       c.fabrication.enabled ? with_stops(c.limits, verdict_work_of_adhesion_values(c.fabrication)) : c.limits;
     LimitsRun run;
-    run.limits = find_adhesion_limits(c.problem, settings, comm, log);
+    run.limits = find_adhesion_limits(c.problem, settings, comm, progress);
     if (c.fabrication.enabled)
       {
         run.check = fabrication_verdicts(run.limits, c.fabrication, c.problem.model.material.fracture_strain);
         if (!c.fabrication.feature_height_entry.empty())
           {
-            if (log)
-              *log << "Scanning the feature height (" << c.fabrication.feature_height_entry << ")\n";
+            if (progress)
+              *progress << "Scanning the feature height (" << c.fabrication.feature_height_entry << ")\n";
             scan_aspect_ratio(
               *run.check, c.fabrication, c.limits,
               [&](double h) { return problem_with_height(prm, c.fabrication.feature_height_entry, h); }, comm, 6,
-              log);
+              progress);
           }
       }
     const std::string stem = c.output.stem();

@@ -1,5 +1,6 @@
 #pragma once
 
+#include <nappe/analysis/adhesion_transitions.h>
 #include <nappe/solvers/adhesion_path.h>
 
 #include <cmath>
@@ -38,6 +39,11 @@ namespace nappe
     AdhesionThreshold equal_energy;
     AdhesionPath      lowering; ///< from the conformed state, Γ decreasing
     AdhesionPath      raising;  ///< from the laid-down state, Γ increasing
+    /// Every jump along the lowering path, then along the raising path (find_transitions()).
+    std::vector<AdhesionTransition> transitions;
+    /// The largest conformed fraction met on either path: where the target is out of reach, the
+    /// fraction that can be had, and the transitions tell how the sheet gets there.
+    FractionPeak largest;
   };
 
   /// Γ_hold from a lowering path: the bracket where the fraction first falls below @p target.
@@ -59,8 +65,9 @@ namespace nappe
   AdhesionThreshold equal_energy_threshold(const AdhesionPath &lowering, const AdhesionPath &raising, double target,
                                            double relative_tolerance);
 
-  /// Follows both paths over the settings' range (states measured by summary_path_measure()) and
-  /// locates the three thresholds.
+  /// Follows both paths over the settings' range (states measured by summary_path_measure()),
+  /// locates the three thresholds and lists the transitions. A threshold whose target fraction no
+  /// state reaches says so, with the largest fraction reached.
   AdhesionLimits find_adhesion_limits(const SheetProblem &problem, const AdhesionPathSettings &settings,
                                       MPI_Comm comm, std::ostream *log = nullptr);
 
