@@ -156,6 +156,34 @@ namespace nappe
     return model_decrease(trial) > model_decrease(best) ? trial : best;
   }
 
+  // Powell's dogleg (Nocedal & Wright 2006, §4.1): along the scaled steepest descent d = −S⁻¹g to the
+  // Cauchy point p_U = (gᵀd/dᵀHd)·d, then towards the Newton step p_B, cut where ‖p‖_S = Δ. H is
+  // positive definite and unshifted; it costs one product with H and no factorisation.
+  Vector MoreSorensenSubproblem::dogleg(double radius) const
+  {
+    Vector d = *gradient_;
+    for (const auto i : d.locally_owned_elements())
+      d(i) /= -(*weights_)(i);
+    d.compress(dealii::VectorOperation::insert);
+    Vector Hd = d;
+    H_->vmult(Hd, d);
+    const double gd = -((*gradient_) * d), dHd = d * Hd, nd = scaled_norm(d);
+    if (!(dHd > 0.0) || gd / dHd * nd >= radius)
+      {
+        d *= radius / std::max(nd, 1e-300);
+        return d;
+      }
+    d *= gd / dHd; // p_U, inside the region
+    Vector between = newton_step_;
+    between -= d; // p_B − p_U
+    Vector Sd = d;
+    Sd.scale(*weights_);
+    const double a = std::pow(scaled_norm(between), 2), b = 2.0 * (between * Sd), c = d * Sd - radius * radius;
+    const double tau = a > 0.0 ? (-b + std::sqrt(std::max(0.0, b * b - 4.0 * a * c))) / (2.0 * a) : 0.0;
+    d.add(std::clamp(tau, 0.0, 1.0), between);
+    return d;
+  }
+
   TrustRegionStep MoreSorensenSubproblem::solve(double radius)
   {
     TrustRegionStep out;
@@ -173,6 +201,8 @@ namespace nappe
     };
     if (inertia_ == 0 && newton_length_ <= (1 + boundary_accuracy) * radius)
       return finish(newton_step_, 0.0);
+    if (inertia_ == 0 && shift_ == 0.0)
+      return finish(dogleg(radius), 0.0);
 
     double lower = lower_, upper = std::max(gershgorin_, 0.0) + gradient_length_ / radius;
     Vector p = newton_step_, w = newton_step_, Sp = newton_step_;

@@ -1,6 +1,9 @@
 // MoreSorensenSubproblem (solvers/trust_region_step.h) against trust-region subproblems whose
 // solution is known in closed form.
 //
+// Moré–Sorensen's method is used where H is indefinite; where H is positive definite and the Newton
+// step is too long, Powell's dogleg (checked against the Cauchy point and the optimum).
+//
 // The matrix is the shifted 1D Dirichlet Laplacian H = tridiag(−1, 2, −1)/h² − σI, n unknowns,
 // h = 1/(n+1), with eigenvalues μ_k = (4/h²) sin²(kπ/(2(n+1))) − σ and orthonormal eigenvectors
 // v_k(i) = √(2/(n+1)) sin(k(i+1)π/(n+1)) (G. Strang, Linear Algebra and its Applications, 4th ed.,
@@ -159,18 +162,33 @@ TEST(MoreSorensenStep, IsTheNewtonStepWhenItFitsAndHIsPositiveDefinite)
   EXPECT_NEAR(model_of(s, p.step), model(s, 0.0), 1e-8 * std::abs(model(s, 0.0)));
 }
 
-TEST(MoreSorensenStep, ReachesTheBoundaryWithNearOptimalDecreaseWhenTheNewtonStepIsTooLong)
+// Where H is positive definite and the Newton step is too long the step is Powell's dogleg (Nocedal &
+// Wright, Numerical Optimization, 2nd ed., 2006, §4.1): on the boundary, never worse than the Cauchy
+// point m_C = −τΔ‖g‖ + ½τ²Δ² gᵀHg/‖g‖², τ = min(1, ‖g‖³/(Δ gᵀHg)) (their eq. 4.12), never better than
+// the optimum.
+TEST(MoreSorensenStep, TakesTheDoglegBetweenTheCauchyPointAndTheOptimumWhenTheNewtonStepIsTooLong)
 {
-  Subproblem s;
-  make(s, 0.0, [](unsigned int k) { return 1.0 / k; });
-  const double radius = 0.2 * std::sqrt(norm2(s, 0.0));
-  unsigned int negative = 99;
-  const TrustRegionStep p = step(s, radius, negative);
-  EXPECT_EQ(negative, 0u);
-  EXPECT_GT(p.multiplier, 0.0);
-  EXPECT_GE(p.length, (1 - accuracy) * radius);
-  EXPECT_LE(p.length, (1 + accuracy) * radius);
-  EXPECT_LE(model_of(s, p.step), std::pow(1 - accuracy, 2) * optimal_model(s, radius));
+  for (const double share : {0.02, 0.2, 0.8})
+    {
+      Subproblem s;
+      make(s, 0.0, [](unsigned int k) { return 1.0 / k; });
+      const double radius = share * std::sqrt(norm2(s, 0.0));
+      double       gg = 0.0, gHg = 0.0;
+      for (unsigned int k = 0; k < n; ++k)
+        {
+          gg += s.a[k] * s.a[k];
+          gHg += s.mu[k] * s.a[k] * s.a[k];
+        }
+      const double          tau    = std::min(1.0, std::pow(gg, 1.5) / (radius * gHg));
+      const double          cauchy = -tau * radius * std::sqrt(gg) + 0.5 * tau * tau * radius * radius * gHg / gg;
+      unsigned int          negative = 99;
+      const TrustRegionStep p        = step(s, radius, negative);
+      EXPECT_EQ(negative, 0u);
+      EXPECT_NEAR(p.length, radius, 1e-9 * radius) << "Δ = " << share << "·‖p_N‖";
+      EXPECT_LE(model_of(s, p.step), cauchy * (1 - 1e-12)) << "Δ = " << share << "·‖p_N‖";
+      EXPECT_GE(model_of(s, p.step), optimal_model(s, radius) * (1 + 1e-12)) << "Δ = " << share << "·‖p_N‖";
+      EXPECT_NEAR(p.predicted_decrease, -model_of(s, p.step), 1e-9 * std::abs(cauchy));
+    }
 }
 
 TEST(MoreSorensenStep, FollowsNegativeCurvatureOfAnIndefiniteHessian)

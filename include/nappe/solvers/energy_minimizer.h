@@ -68,7 +68,8 @@ namespace nappe
    * Finds a stable equilibrium (a local minimum of the energy) by Newton's method globalised for
    * non-convex energies (MinimizerSettings::method):
    *  - trust region (default): each iteration minimises the quadratic model within ‖p‖_S ≤ Δ,
-   *    S = diag|H|, by the Moré–Sorensen method (MoreSorensenSubproblem), which takes the direction
+   *    S = diag|H|, by the Moré–Sorensen method (MoreSorensenSubproblem; Powell's dogleg where H is positive
+   *    definite), which takes the direction
    *    of negative curvature where H is indefinite (an adhesion front, a buckle, a saddle); the
    *    step is accepted if the energy falls by at least acceptance_ratio times the predicted
    *    decrease, and Δ is updated from that ratio ρ (ρ < ¼: Δ = ¼‖p‖; ρ > ¾ on the boundary: Δ = 2Δ;

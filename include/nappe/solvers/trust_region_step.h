@@ -37,6 +37,12 @@ namespace nappe
    * value), or in the hard case when τ²zᵀ(H + λS)z ≤ σ₁(2 − σ₁)(pᵀ(H + λS)p + λΔ²) (their eq. 3.12),
    * which guarantees a model decrease within a factor (1 − σ₁)² of the optimum.
    *
+   * Where H is positive definite and its Newton step leaves the region, the step is Powell's dogleg
+   * instead (Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, §4.1): the path from the scaled
+   * Cauchy point to the Newton step, cut at ‖p‖_S = Δ, which needs no further factorisation and
+   * decreases the model at least as much as the Cauchy point (enough for global convergence, N&W
+   * Theorem 4.5). Moré–Sorensen's iteration is kept for indefinite H, where the dogleg is undefined.
+   *
    * Everything goes through the solver seam (HessianSolver, StabilityCertificate); the hard case needs
    * a certificate that offers lowest_eigenpair() (without one the step falls back to the positive
    * definite solution scaled to the boundary). H is shifted in place while a step is computed; after
@@ -79,6 +85,7 @@ namespace nappe
     LowestEigenpair lowest_shifted_eigenpair();
     double model_decrease(const Vector &p) const;
     Vector to_boundary(const Vector &p, const LowestEigenpair &z, double radius) const;
+    Vector dogleg(double radius) const;
 
     HessianSolvers solvers_;
     Vector         seed_;
