@@ -16,6 +16,16 @@ namespace nappe
   {
     namespace
     {
+      // The predictor–corrector paths use the trust-region corrector; the earlier bisection keeps the
+      // problem's own minimiser (the line search by default), as before.
+      MinimizerSettings corrector_settings(const SheetProblem &p, const AdhesionPathSettings &s)
+      {
+        MinimizerSettings m = p.newton;
+        if (s.method == ContinuationMethod::predictor_corrector)
+          m.method = MinimizerMethod::trust_region;
+        return m;
+      }
+
       const AdhesionPotential &adhesion_of(const SheetProblem &p)
       {
         AssertThrow(p.model.adhesion(),
@@ -31,7 +41,7 @@ namespace nappe
       , settings_(s)
       , measure_(measure)
       , system_(p.model, p.domain, comm)
-      , minimizer_(system_, p.newton, nullptr, make_hessian_solvers(p.solver, comm))
+      , minimizer_(system_, corrector_settings(p, s), nullptr, make_hessian_solvers(p.solver, comm))
       , log_(log)
       , w_dofs_(deflection_dofs(system_))
     {

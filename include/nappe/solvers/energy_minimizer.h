@@ -13,15 +13,18 @@ namespace nappe
   enum class MinimizerMethod
   {
     /// Trust region with the Moré–Sorensen step (trust_region_step.h): follows negative curvature.
+    /// The corrector of the adhesion paths (predictor–corrector continuation), where a front sweeping
+    /// across the substrate stalls the line search.
     trust_region,
-    /// The earlier method: shift H + μ·diag|H| until positive definite, then an energy line search
-    /// (kept for side-by-side comparison in benchmarks/adhesion_limits.cc).
+    /// Shift H + μ·diag|H| until positive definite, then an energy line search: the default of single
+    /// solves, whose tests and timings it keeps (the trust region starts from a small radius where H
+    /// is indefinite and needs many iterations to grow it, e.g. on the adhesive elastica).
     line_search
   };
 
   struct MinimizerSettings
   {
-    MinimizerMethod method = MinimizerMethod::trust_region;
+    MinimizerMethod method = MinimizerMethod::line_search;
     unsigned int max_iterations = 80;
     /// Converged when ‖R‖ ≤ relative_tolerance · (force scale) + absolute_tolerance.
     double relative_tolerance = 1e-9;
@@ -67,7 +70,7 @@ namespace nappe
   /**
    * Finds a stable equilibrium (a local minimum of the energy) by Newton's method globalised for
    * non-convex energies (MinimizerSettings::method):
-   *  - trust region (default): each iteration minimises the quadratic model within ‖p‖_S ≤ Δ,
+   *  - trust region (adhesion paths): each iteration minimises the quadratic model within ‖p‖_S ≤ Δ,
    *    S = diag|H|, by the Moré–Sorensen method (MoreSorensenSubproblem; Powell's dogleg where H is positive
    *    definite), which takes the direction
    *    of negative curvature where H is indefinite (an adhesion front, a buckle, a saddle); the
@@ -76,7 +79,7 @@ namespace nappe
    *    Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, Algorithm 4.1). A state whose
    *    residual is small but whose Hessian is indefinite is a saddle; the step there is the
    *    hard case of the subproblem, along the lowest eigenvector (counted as a saddle escape).
-   *  - line search (kept for comparison): shift H + μ·diag|H| until the certificate finds no negative
+   *  - line search (default): shift H + μ·diag|H| until the certificate finds no negative
    *    eigenvalue (N&W §3.4), backtrack on the energy (Armijo), escape saddles along the eigenvector
    *    of most negative curvature.
    * On return the state is a certified local minimum (the certificate finds no negative eigenvalue

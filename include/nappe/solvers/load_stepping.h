@@ -14,8 +14,9 @@ namespace nappe
     /// How many times in all the increment may be halved along the path before the solve gives up
     /// (after a cut the increment stays at its reduced size).
     unsigned int max_step_cuts = 6;
-    /// Start each step from the tangent predictor U + Δλ·dU/dλ (path_tangent.h) instead of the last state.
-    bool tangent_predictor = true;
+    /// Start each step from the tangent predictor U + Δλ·dU/dλ (path_tangent.h) instead of the last state
+    /// (off by default: single solves keep their verified warm starts).
+    bool tangent_predictor = false;
   };
 
   struct LoadStep
