@@ -65,9 +65,10 @@ namespace nappe
     void remove_previous_results(const OutputSettings &output, std::vector<std::string> suffixes)
     {
       suffixes.push_back(".used.prm");
-      if (!fs::is_directory(output.directory))
+      std::error_code ignored;
+      if (!fs::is_directory(output.directory, ignored))
         return;
-      for (const auto &file : fs::directory_iterator(output.directory))
+      for (const auto &file : fs::directory_iterator(output.directory, ignored))
         {
           const std::string name = file.path().filename().string();
           if (name.rfind(output.base_name, 0) != 0)
@@ -75,7 +76,7 @@ namespace nappe
           const std::string rest = name.substr(output.base_name.size());
           for (const auto &suffix : suffixes)
             if (rest == suffix || (suffix == "_NNNN.vtu" && std::regex_match(rest, std::regex("_[0-9]{4}\\.vtu"))))
-              fs::remove(file.path());
+              fs::remove(file.path(), ignored); // a file that cannot be removed is named by the next write
         }
     }
 
@@ -192,7 +193,18 @@ namespace nappe
         if (root)
           remove_previous_results(sheet_case.output, app.result_suffixes);
       });
-      const CaseOutcome outcome = app.run(prm, sheet_case, comm);
+      const CaseOutcome outcome = [&] {
+        try
+          {
+            return app.run(prm, sheet_case, comm);
+          }
+        catch (...)
+          {
+            if (root) // a failed run leaves no partial result set behind
+              remove_previous_results(sheet_case.output, app.result_suffixes);
+            throw;
+          }
+      }();
       if (!outcome.results_written)
         return outcome.exit_code;
       run_collectively(comm, [&] {
