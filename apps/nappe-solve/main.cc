@@ -8,6 +8,7 @@
 //   nappe-solve --validate case.prm                    check a case file without running it
 //   nappe-solve --list-materials                       the material and interface catalogue
 #include <nappe/io/sheet_report.h>
+#include <nappe/physics/catalogue_sources.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/runs/app_driver.h>
 #include <nappe/runs/case_run.h>
@@ -76,7 +77,13 @@ int main(int argc, char **argv)
                     "stable equilibrium and reports the conformation, strains and energies; writes <stem>.json, CSV "
                     "tables and VTU fields.";
   app.demo_case   = demo_case;
-  app.commands["--list-materials"] = [](std::ostream &out) { nappe::MaterialCatalogue().print(out); };
+  app.commands["--list-materials"] = [](std::ostream &out) {
+    const nappe::MaterialCatalogue catalogue;
+    catalogue.print(out);
+    out << "\nSources (\"verified\": checked against the paper; \"from memory\": to be confirmed before "
+           "quantitative use)\n";
+    nappe::print_catalogue_sources(nappe::read_catalogue_sources(catalogue.path()), out);
+  };
   app.result_suffixes = {".json", ".pvtu", "_NNNN.vtu", "_strain_histogram.csv", "_suspended_regions.csv",
                          "_topography.csv", "_map.csv"};
   app.plot_script = "plot_case.py";
