@@ -4,9 +4,11 @@
 #include <deal.II/grid/manifold_lib.h>
 #include <deal.II/grid/tria.h>
 
+#include <nappe/geometry/gmsh_file_check.h>
 #include <nappe/geometry/sheet_domain.h>
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -46,21 +48,29 @@ namespace nappe
       AssertThrow(!file.empty(), ExcMessage("Domain shape 'mesh file' needs a mesh file name (Domain/Mesh file)."));
       AssertThrow(d.mesh_scale > 0.0, ExcMessage("The mesh scale of '" + file + "' must be positive; got " +
                                                  std::to_string(d.mesh_scale) + "."));
+      // GridIn trusts its input; the check names the line of anything it could misread.
+      check_gmsh_file(file);
       std::ifstream in(file);
-      AssertThrow(std::filesystem::is_regular_file(file) && in,
-                  ExcMessage("The mesh file '" + file + "' does not exist or cannot be opened (working directory '" +
-                             std::filesystem::current_path().string() + "')."));
+      AssertThrow(in, ExcMessage("cannot open Gmsh mesh file '" + file + "' for reading"));
       GridIn<2> grid_in;
       grid_in.attach_triangulation(tria);
       try
         {
           grid_in.read_msh(in);
         }
-      catch (const std::exception &e)
+      catch (const ExceptionBase &e)
         {
-          AssertThrow(false, ExcMessage("The mesh file '" + file +
-                                        "' could not be read as a Gmsh .msh file (ASCII format 2.2 or 4.1): " +
-                                        e.what()));
+          // Only deal.II's description, on one line: not its source location and stack trace.
+          std::ostringstream description;
+          e.print_info(description);
+          std::string text;
+          for (const char c : description.str())
+            if (!std::isspace(static_cast<unsigned char>(c)))
+              text += c;
+            else if (!text.empty() && text.back() != ' ')
+              text += ' ';
+          AssertThrow(false, ExcMessage("Gmsh mesh file '" + file + "': deal.II cannot build a mesh from it: " +
+                                        text));
         }
       AssertThrow(tria.n_active_cells() > 0, ExcMessage("The mesh file '" + file + "' contains no cells."));
       for (const auto &cell : tria.active_cell_iterators())
