@@ -10,6 +10,7 @@
 #include <nappe/io/sheet_case.h>
 #include <nappe/io/sheet_run.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <iomanip>
@@ -23,6 +24,10 @@ namespace nappe
   namespace
   {
     const char *const caution = "Model estimates: confirm by measurement before fabrication decisions.";
+
+    /// Most points a sweep file may define (common practice, no source: every point is a full solve, and
+    /// a larger count is a typing mistake such as 'in 100000000 steps' that would exhaust memory first).
+    constexpr unsigned int max_sweep_points = 10000;
 
     void declare_axis(dealii::ParameterHandler &prm, const std::string &name)
     {
@@ -48,8 +53,9 @@ namespace nappe
       if (text.rfind("from", 0) == 0)
         {
           AssertThrow((in >> from >> a >> to >> b >> in_word >> n >> steps_word) && to == "to" && in_word == "in" &&
-                        n >= 2,
-                      ExcMessage(where + ": expected 'from A to B in N steps' with N >= 2, found '" + text + "'."));
+                        n >= 2 && n <= max_sweep_points && std::isfinite(b - a),
+                      ExcMessage(where + ": expected 'from A to B in N steps' with finite A, B and 2 <= N <= " +
+                                 std::to_string(max_sweep_points) + ", found '" + text + "'."));
           std::vector<double> v;
           for (unsigned int i = 0; i < n; ++i)
             v.push_back(a + (b - a) * i / (n - 1));
@@ -69,6 +75,7 @@ namespace nappe
             }
           if (used != item.size())
             return {}; // not all numbers: a categorical axis
+          AssertThrow(std::isfinite(v.back()), ExcMessage(where + ": expected finite numbers, found '" + item + "'."));
         }
       AssertThrow(!v.empty(), ExcMessage(where + ": expected at least one value."));
       return v;
@@ -368,8 +375,11 @@ namespace nappe
         spec.axes.push_back(a);
     prm.leave_subsection();
     AssertThrow(!spec.axes.empty(), ExcMessage(sweep_file + ": Sweep/Axis 1/Entries: expected at least one entry."));
-    AssertThrow(fs::exists(spec.case_file),
-                ExcMessage(sweep_file + ": Sweep/Case file: '" + spec.case_file + "' does not exist."));
+    AssertThrow(fs::is_regular_file(spec.case_file),
+                ExcMessage(sweep_file + ": Sweep/Case file: '" + spec.case_file + "' does not exist or is not a file."));
+    AssertThrow(spec.n_points() <= max_sweep_points,
+                ExcMessage(sweep_file + ": the sweep has " + std::to_string(spec.n_points()) + " points; expected at most " +
+                           std::to_string(max_sweep_points) + "."));
     for (unsigned int p = 1; p <= spec.n_points(); ++p)
       try
         {

@@ -17,6 +17,8 @@
 #include <mutex>
 #include <sstream>
 
+#include "format.h"
+
 namespace nappe::TopographyFactory
 {
   namespace
@@ -175,7 +177,8 @@ namespace nappe::TopographyFactory
                 continue;
               const auto eq = item.find('=');
               AssertThrow(eq != std::string::npos,
-                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=value', found '" + item + "'"));
+                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=value', found '" +
+                                             internal::excerpt(item) + "'"));
               std::string name = item.substr(0, eq);
               name.erase(0, name.find_first_not_of(" \t"));
               name.erase(name.find_last_not_of(" \t") + 1);
@@ -184,8 +187,8 @@ namespace nappe::TopographyFactory
               const double      v     = std::strtod(value.c_str(), &end);
               AssertThrow(!name.empty() && end != value.c_str() &&
                             std::string(end).find_first_not_of(" \t") == std::string::npos && std::isfinite(v),
-                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=number', found '" + item +
-                                             "'"));
+                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=number', found '" +
+                                             internal::excerpt(item) + "'"));
               constants[name] = v;
             }
           const double support = prm.get_double("Support radius");

@@ -51,6 +51,26 @@ namespace nappe
       }
   }
 
+  namespace
+  {
+    /// Control characters (echoed input, e.g. a binary file given as a case file) shown as \xNN, so that
+    /// a message cannot garble the terminal; line breaks are kept.
+    std::string escape_control_characters(const std::string &text)
+    {
+      static const char *hex = "0123456789abcdef";
+      std::string        out;
+      for (const char c : text)
+        {
+          const auto byte = static_cast<unsigned char>(c);
+          if ((byte < 0x20 && c != '\n') || byte == 0x7f)
+            out += std::string("\\x") + hex[byte >> 4] + hex[byte & 15];
+          else
+            out += c;
+        }
+      return out;
+    }
+  } // namespace
+
   std::string user_message(const std::exception &e)
   {
     if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))
@@ -60,8 +80,8 @@ namespace nappe
         std::string text = s.str();
         while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front())))
           text.erase(text.begin());
-        return text;
+        return escape_control_characters(text);
       }
-    return e.what();
+    return escape_control_characters(e.what());
   }
 } // namespace nappe

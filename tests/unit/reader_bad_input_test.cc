@@ -7,12 +7,16 @@
 // files). The files are invented test inputs.
 #include <deal.II/distributed/tria.h>
 
+#include <deal.II/base/parameter_handler.h>
+
+#include <nappe/analysis/design_sweep.h>
 #include <nappe/base/units.h>
 #include <nappe/geometry/formula_topography.h>
 #include <nappe/geometry/gmsh_file_check.h>
 #include <nappe/geometry/height_map.h>
 #include <nappe/geometry/sheet_domain.h>
 #include <nappe/geometry/stl_topography.h>
+#include <nappe/geometry/topography_factory.h>
 #include <nappe/io/command_line.h>
 
 #include <gtest/gtest.h>
@@ -342,4 +346,33 @@ TEST(GmshBadInput, BrokenFilesAreRefusedNamingFileLineAndWhatWasExpected)
       EXPECT_TRUE(has(m, "Gmsh mesh file 'bad_mesh.msh', " + c.expected_part)) << c.name << ": " << m;
     }
   std::filesystem::remove("bad_mesh.msh");
+}
+
+TEST(FormulaBadInput, ConstantsWithRawBytesAreShownEscaped)
+{
+  // Found by the formula fuzz target: the Constants entry was echoed byte for byte.
+  dealii::ParameterHandler prm;
+  TopographyFactory::declare_parameters(prm);
+  prm.enter_subsection("Topography");
+  prm.set("Type", "formula");
+  prm.enter_subsection("Formula");
+  prm.set("Expression", "A*x");
+  prm.set("Constants", std::string("A\x1a\x1b5"));
+  prm.leave_subsection();
+  prm.leave_subsection();
+  const std::string m = message_of([&] { TopographyFactory::parse_parameters(prm); });
+  EXPECT_TRUE(is_clean_one_line(m)) << m;
+  EXPECT_TRUE(has(m, "Topography/Formula/Constants: expected 'name=value', found 'A\\x1a\\x1b5'")) << m;
+}
+
+TEST(SweepBadInput, AStepCountBeyondTheLimitIsRefusedBeforeAnyPointIsBuilt)
+{
+  // Before: 'in 100000000 steps' filled 2 GB with values and then validated every point.
+  const std::string f = write("huge_sweep.prm", "subsection Sweep\n  set Case file = no_case.prm\n"
+                                                "  subsection Axis 1\n    set Entries = Loads/Pressure\n"
+                                                "    set Values = from 0.5 to 2 in 100000000 steps\n  end\nend\n");
+  const std::string m = message_of([&] { read_sweep(f); });
+  EXPECT_TRUE(has(m, "Sweep/Axis 1/Values")) << m;
+  EXPECT_TRUE(has(m, "2 <= N <= 10000")) << m;
+  std::filesystem::remove(f);
 }

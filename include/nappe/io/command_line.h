@@ -22,6 +22,7 @@ namespace nappe
   void read_case_arguments(dealii::ParameterHandler &prm, const std::vector<std::string> &args,
                            const std::string &demo_case, const std::string &usage);
 
-  /// The message of an exception for a user: deal.II's text without source location and stack trace.
+  /// The message of an exception for a user: deal.II's text without source location and stack trace;
+  /// control characters other than line breaks (echoed from a binary input) are shown as \xNN.
   std::string user_message(const std::exception &e);
 } // namespace nappe
