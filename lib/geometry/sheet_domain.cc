@@ -41,6 +41,22 @@ namespace nappe
       std::map<types::boundary_id, Edge> edges;
     };
 
+    /// deal.II's description of an exception on one line: not its source location and stack trace.
+    std::string one_line_description(const ExceptionBase &e)
+    {
+      std::ostringstream description;
+      e.print_info(description);
+      std::string text;
+      for (const char c : description.str())
+        if (!std::isspace(static_cast<unsigned char>(c)))
+          text += c;
+        else if (!text.empty() && text.back() != ' ')
+          text += ' ';
+      while (!text.empty() && text.back() == ' ')
+        text.pop_back();
+      return text;
+    }
+
     /// Reads @p d's mesh file into @p tria (serial, empty) and scales it; throws naming the file.
     void read_mesh_file(Triangulation<2> &tria, const SheetDomain &d)
     {
@@ -60,17 +76,8 @@ namespace nappe
         }
       catch (const ExceptionBase &e)
         {
-          // Only deal.II's description, on one line: not its source location and stack trace.
-          std::ostringstream description;
-          e.print_info(description);
-          std::string text;
-          for (const char c : description.str())
-            if (!std::isspace(static_cast<unsigned char>(c)))
-              text += c;
-            else if (!text.empty() && text.back() != ' ')
-              text += ' ';
           AssertThrow(false, ExcMessage("Gmsh mesh file '" + file + "': deal.II cannot build a mesh from it: " +
-                                        text));
+                                        one_line_description(e)));
         }
       AssertThrow(tria.n_active_cells() > 0, ExcMessage("The mesh file '" + file + "' contains no cells."));
       for (const auto &cell : tria.active_cell_iterators())
@@ -304,12 +311,12 @@ namespace nappe
         GridTools::collect_periodic_faces(tria, 0, 1, 0, pairs, a1);
         GridTools::collect_periodic_faces(tria, 2, 3, 1, pairs, a2);
       }
-    catch (const std::exception &e)
+    catch (const ExceptionBase &e)
       {
         AssertThrow(domain.shape != SheetDomain::Shape::mesh_file,
                     ExcMessage("The opposite edges (ids 0/1 and 2/3) of the periodic mesh file '" + domain.mesh_file +
                                "' do not match node for node under the translations a1, a2 of the cell; mesh "
-                               "them with Gmsh's 'Periodic Curve'. deal.II: " + e.what()));
+                               "them with Gmsh's 'Periodic Curve' (deal.II: " + one_line_description(e) + ")."));
         throw;
       }
     return pairs;

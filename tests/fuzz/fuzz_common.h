@@ -19,6 +19,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
+#include <functional>
 #include <fstream>
 #include <sstream>
 #include <string>
@@ -26,9 +27,22 @@
 
 namespace nappe::fuzz
 {
+  /// The input being run, saved with a finding (some libraries' signal handlers keep libFuzzer from
+  /// saving it itself).
+  inline std::string &current_input()
+  {
+    static std::string input;
+    return input;
+  }
+
   [[noreturn]] inline void finding(const std::string &why)
   {
     std::fprintf(stderr, "\nnappe fuzz finding: %s\n", why.c_str());
+    const char       *dir  = std::getenv("NAPPE_FUZZ_FINDINGS");
+    const std::string path = std::string(dir ? dir : "/tmp") + "/finding-" +
+                             std::to_string(std::hash<std::string>()(current_input()));
+    std::ofstream(path, std::ios::binary) << current_input();
+    std::fprintf(stderr, "nappe fuzz finding: input saved as %s\n", path.c_str());
     std::abort();
   }
 
@@ -99,6 +113,7 @@ namespace nappe::fuzz
   template <typename Read>
   void run_reader(Read &&read, const MessageRules &rules)
   {
+    current_input() = rules.input;
     try
       {
         read();
@@ -113,5 +128,13 @@ namespace nappe::fuzz
   {
     if (!std::isfinite(value))
       finding(std::string("an accepted input gives a non-finite ") + what);
+  }
+
+  /// Component by component (a norm of large finite components may overflow by itself).
+  template <typename Vector>
+  void require_finite(const Vector &v, const char *what)
+  {
+    for (unsigned int d = 0; d < 2; ++d)
+      require_finite(v[d], what);
   }
 } // namespace nappe::fuzz

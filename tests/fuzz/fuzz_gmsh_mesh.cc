@@ -45,8 +45,9 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
         dealii::parallel::distributed::Triangulation<2> tria(MPI_COMM_SELF);
         make_sheet_mesh(tria, d);
         const auto [a1, a2] = d.lattice_vectors();
-        fuzz::require_finite(a1.norm() + a2.norm(), "lattice vector");
-        fuzz::require_finite(d.center().norm(), "mesh centre");
+        fuzz::require_finite(a1, "lattice vector");
+        fuzz::require_finite(a2, "lattice vector");
+        fuzz::require_finite(d.center(), "mesh centre");
         (void)d.boundary_ids();
       },
       {name, true, input});

@@ -139,13 +139,14 @@ namespace
                                     "2 1 3 2\n7 1 2 5 4\n8 2 3 6 5\n$EndElements\n";
 
   /// The message of make_sheet_mesh on @p file (0 refinements), or "" if it builds.
-  std::string mesh_message(const std::string &file)
+  std::string mesh_message(const std::string &file, const bool periodic = false)
   {
     return message_of([&] {
       SheetDomain d;
       d.shape              = SheetDomain::Shape::mesh_file;
       d.mesh_file          = file;
       d.global_refinements = 0;
+      d.periodic           = periodic;
       dealii::parallel::distributed::Triangulation<2> tria(MPI_COMM_WORLD);
       make_sheet_mesh(tria, d);
     });
@@ -357,7 +358,7 @@ TEST(FormulaBadInput, ConstantsWithRawBytesAreShownEscaped)
   prm.set("Type", "formula");
   prm.enter_subsection("Formula");
   prm.set("Expression", "A*x");
-  prm.set("Constants", std::string("A\x1a\x1b5"));
+  prm.set("Constants", std::string("A\x1a\x1b") + "5");
   prm.leave_subsection();
   prm.leave_subsection();
   const std::string m = message_of([&] { TopographyFactory::parse_parameters(prm); });
@@ -375,4 +376,17 @@ TEST(SweepBadInput, AStepCountBeyondTheLimitIsRefusedBeforeAnyPointIsBuilt)
   EXPECT_TRUE(has(m, "Sweep/Axis 1/Values")) << m;
   EXPECT_TRUE(has(m, "2 <= N <= 10000")) << m;
   std::filesystem::remove(f);
+}
+
+TEST(GmshBadInput, PeriodicEdgesThatDoNotMatchGiveOneLine)
+{
+  // Found by the Gmsh fuzz target: deal.II's assertion block was appended to nappe's message.
+  std::string skewed = two_quads_v22;
+  skewed.replace(skewed.find("6 2 1 0"), 7, "6 2 1.5 0"); // the right edge becomes longer than the left
+  const std::string file = write("skewed_cell.msh", skewed);
+  EXPECT_EQ(mesh_message(file), "");
+  const std::string m = mesh_message(file, true);
+  EXPECT_TRUE(is_clean_one_line(m)) << m;
+  EXPECT_TRUE(has(m, "periodic mesh file 'skewed_cell.msh' do not match node for node")) << m;
+  std::filesystem::remove(file);
 }
