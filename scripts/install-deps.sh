@@ -11,7 +11,11 @@ packages=(
   libboost-dev
   libgtest-dev googletest libbenchmark-dev
   python3 python3-matplotlib     # plots of sweeps and regime maps
+  clang                          # fuzz targets (scripts/fuzz.sh): libFuzzer, AddressSanitizer, UBSan
 )
+# clang's libFuzzer and sanitizer runtimes come in a package named after clang's major version.
+clang_major=$(clang++ --version 2>/dev/null | sed -n 's/.*clang version \([0-9]*\).*/\1/p' | head -1)
+packages+=("libclang-rt-${clang_major:-14}-dev")
 
 missing=()
 for p in "${packages[@]}"; do

@@ -15,8 +15,6 @@
 #include <deal.II/base/mpi.h>
 
 #include <iostream>
-#include <string>
-#include <vector>
 
 namespace
 {
@@ -76,30 +74,19 @@ end
 
 int main(int argc, char **argv)
 {
-  // --quiet (run control, not physics): no progress lines, only the summary. Taken out before the
-  // shared argument handling.
-  std::vector<char *> args;
-  bool                quiet = false;
-  for (int i = 0; i < argc; ++i)
-    if (i > 0 && std::string(argv[i]) == "--quiet")
-      quiet = true;
-    else
-      args.push_back(argv[i]);
-  const int kept = static_cast<int>(args.size());
-  args.push_back(nullptr); // argv[argc] is a null pointer (MPI_Init relies on it)
   nappe::CaseApp app;
   app.name        = "nappe-limits";
   app.description = "follows the equilibrium while the work of adhesion is lowered from the conformed state and "
                     "raised from the laid-down state, and reports Gamma_hold, Gamma_eq and Gamma_snap with their "
                     "brackets, the transitions (jumps) along both paths (and, if the case asks, a fabrication "
-                    "check); writes <stem>_limits.json and <stem>_adhesion_paths.csv. --quiet: no progress lines.";
+                    "check); writes <stem>_limits.json and <stem>_adhesion_paths.csv.";
   app.demo_case       = demo_case;
   app.result_suffixes = {"_limits.json", "_adhesion_paths.csv"};
   app.plot_script = "plot_limits.py";
-  app.run = [quiet](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm) {
-    const bool             root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const nappe::LimitsRun run  = nappe::run_adhesion_limits(prm, c, comm, root ? &std::cout : nullptr, quiet);
+  app.run = [](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm, bool quiet) {
+    std::ostream *const    out = dealii::Utilities::MPI::this_mpi_process(comm) == 0 ? &std::cout : nullptr;
+    const nappe::LimitsRun run = nappe::run_adhesion_limits(prm, c, comm, out, quiet ? nullptr : out);
     return nappe::CaseOutcome{run.complete() ? 0 : 2, true};
   };
-  return nappe::run_case_app(kept, args.data(), app);
+  return nappe::run_case_app(argc, argv, app);
 }

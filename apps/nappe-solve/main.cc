@@ -8,6 +8,7 @@
 //   nappe-solve --validate case.prm                    check a case file without running it
 //   nappe-solve --list-materials                       the material and interface catalogue
 #include <nappe/io/sheet_report.h>
+#include <nappe/physics/catalogue_sources.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/runs/app_driver.h>
 #include <nappe/runs/case_run.h>
@@ -76,13 +77,19 @@ int main(int argc, char **argv)
                     "stable equilibrium and reports the conformation, strains and energies; writes <stem>.json, CSV "
                     "tables and VTU fields.";
   app.demo_case   = demo_case;
-  app.commands["--list-materials"] = [](std::ostream &out) { nappe::MaterialCatalogue().print(out); };
+  app.commands["--list-materials"] = [](std::ostream &out) {
+    const nappe::MaterialCatalogue catalogue;
+    catalogue.print(out);
+    out << "\nSources (\"verified\": checked against the paper; \"from memory\": to be confirmed before "
+           "quantitative use)\n";
+    nappe::print_catalogue_sources(nappe::read_catalogue_sources(catalogue.path()), out);
+  };
   app.result_suffixes = {".json", ".pvtu", "_NNNN.vtu", "_strain_histogram.csv", "_suspended_regions.csv",
                          "_topography.csv", "_map.csv"};
   app.plot_script = "plot_case.py";
-  app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm) {
+  app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm, bool quiet) {
     const bool            root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root ? &std::cout : nullptr);
+    const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root && !quiet ? &std::cout : nullptr);
     if (root)
       nappe::print_sheet_summary(c, run.result, run.files, std::cout);
     return nappe::CaseOutcome{run.result.converged ? 0 : 2, run.result.converged};

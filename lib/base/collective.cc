@@ -9,6 +9,26 @@
 
 namespace nappe
 {
+  namespace
+  {
+    /// Control characters (echoed input, e.g. a binary file given as a case file) shown as \xNN, so that
+    /// a message cannot garble the terminal; line breaks are kept.
+    std::string escape_control_characters(const std::string &text)
+    {
+      static const char *hex = "0123456789abcdef";
+      std::string        out;
+      for (const char c : text)
+        {
+          const auto byte = static_cast<unsigned char>(c);
+          if ((byte < 0x20 && c != '\n') || byte == 0x7f)
+            out += std::string("\\x") + hex[byte >> 4] + hex[byte & 15];
+          else
+            out += c;
+        }
+      return out;
+    }
+  } // namespace
+
   std::string user_message(const std::exception &e)
   {
     if (const auto *deal = dynamic_cast<const dealii::ExceptionBase *>(&e))
@@ -20,9 +40,9 @@ namespace nappe
           text.erase(text.begin());
         while (!text.empty() && std::isspace(static_cast<unsigned char>(text.back())))
           text.pop_back();
-        return text;
+        return escape_control_characters(text);
       }
-    return e.what();
+    return escape_control_characters(e.what());
   }
 
   void run_collectively(MPI_Comm comm, const std::function<void()> &work)

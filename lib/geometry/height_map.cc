@@ -1,5 +1,6 @@
 #include <deal.II/base/exceptions.h>
 
+#include <nappe/geometry/height_limit.h>
 #include <nappe/geometry/height_map.h>
 
 #include <algorithm>
@@ -8,6 +9,7 @@
 #include <sstream>
 
 #include "format.h"
+#include "input_file.h"
 
 namespace nappe
 {
@@ -55,8 +57,9 @@ namespace nappe
       explicit LineReader(const std::string &filename, const std::string &kind)
         : filename(filename)
         , kind(kind)
-        , in(filename)
       {
+        internal::require_regular_file(filename, kind);
+        in.open(filename);
         AssertThrow(in.good(), dealii::ExcMessage("cannot open " + kind + " file '" + filename + "' for reading"));
       }
 
@@ -94,9 +97,19 @@ namespace nappe
         char        *end   = nullptr;
         const double value = std::strtod(token.c_str(), &end);
         if (end == token.c_str() || *end != '\0')
-          fail("expected " + expected + ", found '" + token + "'");
+          fail("expected " + expected + ", found '" + internal::excerpt(token) + "'");
         if (!std::isfinite(value))
-          fail("expected " + expected + " (a finite number), found '" + token + "'");
+          fail("expected " + expected + " (a finite number), found '" + internal::excerpt(token) + "'");
+        return value;
+      }
+
+      /// A height token times @p unit [m], checked against max_topography_height.
+      double height(const std::string &token, const double unit)
+      {
+        const double value = number(token, "a height") * unit;
+        if (!(std::abs(value) <= max_topography_height))
+          fail("the height " + internal::excerpt(token) + " (" + internal::nm(value) + ") is out of range; expected "
+               "|height| <= " + internal::nm(max_topography_height) + " (check the height unit)");
         return value;
       }
 
@@ -141,9 +154,11 @@ namespace nappe
                   dealii::ExcMessage("height map from " + source + ": the grid spacing must be positive, found " +
                                      internal::nm(dx[d]) + (d == 0 ? " along x" : " along y")));
     for (std::size_t k = 0; k < z.size(); ++k)
-      AssertThrow(std::isfinite(z[k]),
+      AssertThrow(std::abs(z[k]) <= max_topography_height,
                   dealii::ExcMessage("height map from " + source + ": the height at node (" +
-                                     std::to_string(k % nx) + ", " + std::to_string(k / nx) + ") is not finite"));
+                                     std::to_string(k % nx) + ", " + std::to_string(k / nx) + ") is " +
+                                     internal::nm(z[k]) + "; expected a finite height with |height| <= " +
+                                     internal::nm(max_topography_height)));
   }
 
 
@@ -171,7 +186,7 @@ namespace nappe
                           std::to_string(first_line) + " (rows must have equal length), found " +
                           std::to_string(tokens.size()));
             for (const auto &t : tokens)
-              values.push_back(reader.number(t, "a height") * options.height_unit);
+              values.push_back(reader.height(t, options.height_unit));
             ++n_rows;
           }
         AssertThrow(n_rows >= 4 && n_columns >= 4,
@@ -197,7 +212,7 @@ namespace nappe
           reader.fail("expected three numbers 'x y z', found " + std::to_string(tokens.size()) + " values");
         points.push_back({reader.number(tokens[0], "a coordinate x") * options.length_unit,
                           reader.number(tokens[1], "a coordinate y") * options.length_unit,
-                          reader.number(tokens[2], "a height z") * options.height_unit});
+                          reader.height(tokens[2], options.height_unit)});
         lines.push_back(reader.line_number);
       }
     AssertThrow(points.size() >= 16,
@@ -231,7 +246,7 @@ namespace nappe
           {
             const double t = (points[k][d] - origin[d]) / spacing[d];
             index[d]       = static_cast<int>(std::lround(t));
-            if (std::abs(t - index[d]) > 1e-3)
+            if (std::abs(t - index[d]) > 1e-3 || index[d] < 0 || index[d] >= int(d == 0 ? n_x : n_y))
               {
                 reader.line_number = lines[k];
                 reader.fail(std::string("the point is not on the regular grid implied by the file (") +
@@ -303,12 +318,13 @@ namespace nappe
       return;
     for (unsigned int d = 0; d < 2; ++d)
       {
-        const double s      = sigma / dx[d];
-        const int    radius = static_cast<int>(std::ceil(4.0 * s));
-        const int    n      = d == 0 ? nx : ny;
-        AssertThrow(ext == Extension::periodic || radius < n,
+        const double s = sigma / dx[d];
+        const int    n = d == 0 ? nx : ny;
+        // Checked before the conversion to int; a kernel wider than a periodic scan only flattens it.
+        AssertThrow(4.0 * s < n,
                     dealii::ExcMessage("height map from " + source + ": the smoothing width " + internal::nm(sigma) +
                                        " is too large for the scan (4 sigma must be shorter than the scan)"));
+        const int radius = static_cast<int>(std::ceil(4.0 * s));
         std::vector<double> w(2 * radius + 1);
         double              total = 0.0;
         for (int k = -radius; k <= radius; ++k)
@@ -397,6 +413,11 @@ namespace nappe
       {
         const int n = d == 0 ? nx : ny;
         double    t = (p[d] - x0[d]) / dx[d];
+        // A non-finite grid coordinate (a non-finite point, or a spacing so small that the quotient
+        // overflows) has no cell; converting it to int would be undefined.
+        AssertThrow(std::isfinite(t), dealii::ExcMessage("height map from " + source + ": the point (" +
+                                                         internal::nm(p[0]) + ", " + internal::nm(p[1]) +
+                                                         ") has no grid cell for the spacing " + internal::nm(dx[d])));
         clamped[d]  = false;
         if (ext == Extension::periodic)
           {
@@ -405,7 +426,7 @@ namespace nappe
           }
         else
           {
-            if (ext == Extension::error && (t < -1e-9 || t > n - 1 + 1e-9 || !std::isfinite(t)))
+            if (ext == Extension::error && (t < -1e-9 || t > n - 1 + 1e-9))
               {
                 const dealii::Point<2> top = last_node();
                 AssertThrow(false, dealii::ExcMessage("height map from " + source + ": the point (" +

@@ -4,9 +4,11 @@
 #include <deal.II/grid/manifold_lib.h>
 #include <deal.II/grid/tria.h>
 
+#include <nappe/geometry/gmsh_file_check.h>
 #include <nappe/geometry/sheet_domain.h>
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -39,6 +41,22 @@ namespace nappe
       std::map<types::boundary_id, Edge> edges;
     };
 
+    /// deal.II's description of an exception on one line: not its source location and stack trace.
+    std::string one_line_description(const ExceptionBase &e)
+    {
+      std::ostringstream description;
+      e.print_info(description);
+      std::string text;
+      for (const char c : description.str())
+        if (!std::isspace(static_cast<unsigned char>(c)))
+          text += c;
+        else if (!text.empty() && text.back() != ' ')
+          text += ' ';
+      while (!text.empty() && text.back() == ' ')
+        text.pop_back();
+      return text;
+    }
+
     /// Reads @p d's mesh file into @p tria (serial, empty) and scales it; throws naming the file.
     void read_mesh_file(Triangulation<2> &tria, const SheetDomain &d)
     {
@@ -46,21 +64,20 @@ namespace nappe
       AssertThrow(!file.empty(), ExcMessage("Domain shape 'mesh file' needs a mesh file name (Domain/Mesh file)."));
       AssertThrow(d.mesh_scale > 0.0, ExcMessage("The mesh scale of '" + file + "' must be positive; got " +
                                                  std::to_string(d.mesh_scale) + "."));
+      // GridIn trusts its input; the check names the line of anything it could misread.
+      check_gmsh_file(file);
       std::ifstream in(file);
-      AssertThrow(std::filesystem::is_regular_file(file) && in,
-                  ExcMessage("The mesh file '" + file + "' does not exist or cannot be opened (working directory '" +
-                             std::filesystem::current_path().string() + "')."));
+      AssertThrow(in, ExcMessage("cannot open Gmsh mesh file '" + file + "' for reading"));
       GridIn<2> grid_in;
       grid_in.attach_triangulation(tria);
       try
         {
           grid_in.read_msh(in);
         }
-      catch (const std::exception &e)
+      catch (const ExceptionBase &e)
         {
-          AssertThrow(false, ExcMessage("The mesh file '" + file +
-                                        "' could not be read as a Gmsh .msh file (ASCII format 2.2 or 4.1): " +
-                                        e.what()));
+          AssertThrow(false, ExcMessage("Gmsh mesh file '" + file + "': deal.II cannot build a mesh from it: " +
+                                        one_line_description(e)));
         }
       AssertThrow(tria.n_active_cells() > 0, ExcMessage("The mesh file '" + file + "' contains no cells."));
       for (const auto &cell : tria.active_cell_iterators())
@@ -294,12 +311,12 @@ namespace nappe
         GridTools::collect_periodic_faces(tria, 0, 1, 0, pairs, a1);
         GridTools::collect_periodic_faces(tria, 2, 3, 1, pairs, a2);
       }
-    catch (const std::exception &e)
+    catch (const ExceptionBase &e)
       {
         AssertThrow(domain.shape != SheetDomain::Shape::mesh_file,
                     ExcMessage("The opposite edges (ids 0/1 and 2/3) of the periodic mesh file '" + domain.mesh_file +
                                "' do not match node for node under the translations a1, a2 of the cell; mesh "
-                               "them with Gmsh's 'Periodic Curve'. deal.II: " + e.what()));
+                               "them with Gmsh's 'Periodic Curve' (deal.II: " + one_line_description(e) + ")."));
         throw;
       }
     return pairs;

@@ -1,6 +1,7 @@
 // The only unit that includes CGAL (heavy): the AABB tree of the STL facets.
 #include <deal.II/base/exceptions.h>
 
+#include <nappe/geometry/height_limit.h>
 #include <nappe/geometry/stl_topography.h>
 
 #include <CGAL/AABB_traits.h>
@@ -17,6 +18,7 @@
 #include <sstream>
 
 #include "format.h"
+#include "input_file.h"
 
 namespace nappe
 {
@@ -36,7 +38,17 @@ namespace nappe
       throw; // not reached
     }
 
-    std::vector<RawFacet> read_binary(const std::string &filename, std::ifstream &in, const std::uint32_t n)
+    /// The message for a vertex whose height z (in file units, times @p unit in m) is out of range.
+    std::string height_out_of_range(const double z, const double unit)
+    {
+      return "height z = " + internal::num(z) + " file units (" + internal::nm(z * unit) +
+             "); expected |z| <= " + internal::nm(max_topography_height) + " (check the length unit)";
+    }
+
+    bool height_in_range(const double z, const double unit) { return std::abs(z * unit) <= max_topography_height; }
+
+    std::vector<RawFacet> read_binary(const std::string &filename, std::ifstream &in, const std::uint32_t n,
+                                      const double unit)
     {
       std::vector<RawFacet> facets(n);
       in.seekg(84);
@@ -55,11 +67,15 @@ namespace nappe
                        " has a non-finite vertex coordinate; expected finite numbers");
                 facets[k][v][c] = f;
               }
+          for (unsigned int v = 0; v < 3; ++v)
+            if (!height_in_range(facets[k][v][2], unit))
+              fail("binary STL file '" + filename + "': facet " + std::to_string(k + 1) + " has a vertex at " +
+                   height_out_of_range(facets[k][v][2], unit));
         }
       return facets;
     }
 
-    std::vector<RawFacet> read_ascii(const std::string &filename, std::ifstream &in)
+    std::vector<RawFacet> read_ascii(const std::string &filename, std::ifstream &in, const double unit)
     {
       in.seekg(0);
       std::vector<RawFacet> facets;
@@ -79,7 +95,7 @@ namespace nappe
       RawFacet     current{};
       auto         error = [&](const std::string &what, const std::string &found) {
         fail("ASCII STL file '" + filename + "', line " + std::to_string(line_number) + ": expected " + what +
-             ", found '" + found + "'");
+             ", found '" + internal::excerpt(found) + "'");
       };
       while (std::getline(in, line))
         {
@@ -132,6 +148,9 @@ namespace nappe
                         error("a finite number as coordinate " + std::to_string(c + 1) + " of the vertex", token);
                       current[n_v][c] = value;
                     }
+                  if (!height_in_range(current[n_v][2], unit))
+                    fail("ASCII STL file '" + filename + "', line " + std::to_string(line_number) + ": a vertex at " +
+                         height_out_of_range(current[n_v][2], unit));
                   if (++n_v == 3)
                     expect = Expect::endloop;
                   break;
@@ -229,6 +248,7 @@ namespace nappe
     AssertThrow(std::isfinite(options.outside_height),
                 dealii::ExcMessage("STL file '" + filename + "': the height outside the footprint must be finite"));
 
+    internal::require_regular_file(filename, "STL");
     std::ifstream in(filename, std::ios::binary);
     AssertThrow(in.good(), dealii::ExcMessage("cannot open STL file '" + filename + "' for reading"));
     in.seekg(0, std::ios::end);
@@ -240,21 +260,28 @@ namespace nappe
     std::uint32_t n_binary = 0;
     if (size >= 84)
       std::memcpy(&n_binary, header + 80, 4);
-    const bool is_binary  = size >= 84 && size == 84 + 50 * std::streamoff(n_binary);
-    const bool looks_text = size >= 5 && std::strncmp(header, "solid", 5) == 0;
+    const bool is_binary    = size >= 84 && size == 84 + 50 * std::streamoff(n_binary);
+    const bool starts_solid = size >= 5 && std::strncmp(header, "solid", 5) == 0;
+    // Binary exporters often begin the 80-byte comment with "solid" too; an ASCII file has no control
+    // bytes other than white space in its first 84 bytes, a binary one has its facet count there.
+    const bool looks_text = starts_solid && std::none_of(header, header + std::min<std::streamoff>(size, 84), [](char c) {
+                              const auto b = static_cast<unsigned char>(c);
+                              return b < 0x20 && b != '\t' && b != '\n' && b != '\r' && b != '\f' && b != '\v';
+                            });
 
     std::vector<RawFacet> facets;
     if (is_binary)
-      facets = read_binary(filename, in, n_binary);
+      facets = read_binary(filename, in, n_binary, options.length_unit);
     else if (looks_text)
-      facets = read_ascii(filename, in);
+      facets = read_ascii(filename, in, options.length_unit);
     else if (size < 84)
       fail("STL file '" + filename + "': expected an ASCII STL starting with 'solid' or a binary STL with an "
            "84-byte header, found a file of " + std::to_string(size) + " bytes");
     else
       fail("binary STL file '" + filename + "': the header announces " + std::to_string(n_binary) +
            " facets, which need " + std::to_string(84 + 50 * std::streamoff(n_binary)) +
-           " bytes, but the file has " + std::to_string(size) + " bytes (truncated or not an STL file)");
+           " bytes, but the file has " + std::to_string(size) + " bytes (truncated or not an STL file" +
+           (starts_solid ? "; its header starts with 'solid' but it contains binary data" : "") + ")");
     AssertThrow(!facets.empty(), dealii::ExcMessage("STL file '" + filename + "': expected at least one facet, found none"));
 
     const double u = options.length_unit;

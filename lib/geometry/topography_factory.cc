@@ -1,6 +1,7 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/base/units.h>
+#include <nappe/geometry/height_limit.h>
 #include <nappe/geometry/formula_topography.h>
 #include <nappe/geometry/height_map.h>
 #include <nappe/geometry/lattice_array.h>
@@ -15,6 +16,8 @@
 #include <map>
 #include <mutex>
 #include <sstream>
+
+#include "format.h"
 
 namespace nappe::TopographyFactory
 {
@@ -36,10 +39,16 @@ namespace nappe::TopographyFactory
       Creator     create;
     };
 
+    /// Bound of every length entry [nm]: max_topography_height (1 mm), so that a mistyped exponent
+    /// (e.g. a height of 1e308) is refused where it is read, naming the entry and the range.
+    constexpr double max_length_nm = max_topography_height / nm;
+
+    /// A length entry in [lower, 1e6] nm, or in [−1e6, 1e6] nm when @p signed_length.
     void declare_length(ParameterHandler &prm, const std::string &name, const std::string &value,
-                        const std::string &doc, double lower = 0.0)
+                        const std::string &doc, const bool signed_length = false)
     {
-      prm.declare_entry(name, value, Double(lower), doc + " [nm]");
+      prm.declare_entry(name, value, Double(signed_length ? -max_length_nm : 0.0, max_length_nm),
+                        doc + " [nm], at most 1e6 nm (1 mm) in magnitude");
     }
 
     void declare_angle(ParameterHandler &prm, const std::string &doc)
@@ -55,7 +64,7 @@ namespace nappe::TopographyFactory
 
       r["sinusoidal grating"] = {"Sinusoidal grating",
         [](ParameterHandler &prm) {
-          declare_length(prm, "Amplitude", "5", "Amplitude A of s = A cos(2 pi x / lambda)", -Double::max_double_value);
+          declare_length(prm, "Amplitude", "5", "Amplitude A of s = A cos(2 pi x / lambda)", true);
           declare_length(prm, "Wavelength", "100", "Wavelength lambda (period along x)");
         },
         [](ParameterHandler &prm) {
@@ -64,7 +73,7 @@ namespace nappe::TopographyFactory
 
       r["egg carton"] = {"Egg carton",
         [](ParameterHandler &prm) {
-          declare_length(prm, "Amplitude", "5", "Amplitude A of s = A cos(kx) cos(ky)", -Double::max_double_value);
+          declare_length(prm, "Amplitude", "5", "Amplitude A of s = A cos(kx) cos(ky)", true);
           declare_length(prm, "Wavelength", "100", "Wavelength lambda = 2 pi / k (period along x and y)");
         },
         [](ParameterHandler &prm) {
@@ -74,7 +83,7 @@ namespace nappe::TopographyFactory
       r["gaussian bump"] = {"Gaussian bump",
         [](ParameterHandler &prm) {
           declare_length(prm, "Height", "10", "Peak height H of s = H exp(-r^2/(2 sigma^2)); negative for a dimple",
-                         -Double::max_double_value);
+                         true);
           declare_length(prm, "Width", "20", "Standard deviation sigma");
         },
         [](ParameterHandler &prm) {
@@ -136,7 +145,7 @@ namespace nappe::TopographyFactory
       r["step"] = {"Step",
         [](ParameterHandler &prm) {
           declare_length(prm, "Height", "10", "Step height H (s = 0 for x << 0, H for x >> 0); negative steps down",
-                         -Double::max_double_value);
+                         true);
           declare_length(prm, "Edge radius", "5", "Rounding radius of both edges");
           declare_angle(prm, "Sidewall angle to the substrate plane");
         },
@@ -168,7 +177,8 @@ namespace nappe::TopographyFactory
                 continue;
               const auto eq = item.find('=');
               AssertThrow(eq != std::string::npos,
-                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=value', found '" + item + "'"));
+                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=value', found '" +
+                                             internal::excerpt(item) + "'"));
               std::string name = item.substr(0, eq);
               name.erase(0, name.find_first_not_of(" \t"));
               name.erase(name.find_last_not_of(" \t") + 1);
@@ -177,8 +187,8 @@ namespace nappe::TopographyFactory
               const double      v     = std::strtod(value.c_str(), &end);
               AssertThrow(!name.empty() && end != value.c_str() &&
                             std::string(end).find_first_not_of(" \t") == std::string::npos && std::isfinite(v),
-                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=number', found '" + item +
-                                             "'"));
+                          dealii::ExcMessage("Topography/Formula/Constants: expected 'name=number', found '" +
+                                             internal::excerpt(item) + "'"));
               constants[name] = v;
             }
           const double support = prm.get_double("Support radius");
@@ -245,7 +255,7 @@ namespace nappe::TopographyFactory
           prm.declare_entry("Outside", "error", Selection("error|constant"),
                             "Off the STL's footprint: error, or constant = Outside height");
           declare_length(prm, "Outside height", "0", "Height off the footprint when Outside = constant",
-                         -Double::max_double_value);
+                         true);
         },
         [](ParameterHandler &prm) {
           const std::string file = prm.get("File");
@@ -314,11 +324,11 @@ namespace nappe::TopographyFactory
     prm.declare_entry("Type", "flat", Selection(selection), "Substrate topography, one of: " + selection);
     prm.declare_entry("Array", "none", Selection("none|square|hexagonal"),
                       "Repeat the feature on a lattice (the feature must be localised)");
-    prm.declare_entry("Array pitch", "200", Double(0.0), "Lattice constant (nearest-neighbour distance) [nm]");
-    prm.declare_entry("Rotation angle", "0", Double(), "Counter-clockwise rotation about the origin [deg]");
-    prm.declare_entry("Offset x", "0", Double(), "Lateral shift along x, applied after the rotation [nm]");
-    prm.declare_entry("Offset y", "0", Double(), "Lateral shift along y, applied after the rotation [nm]");
-    prm.declare_entry("Vertical offset", "0", Double(), "Added to the height [nm]");
+    declare_length(prm, "Array pitch", "200", "Lattice constant (nearest-neighbour distance)");
+    prm.declare_entry("Rotation angle", "0", Double(-360.0, 360.0), "Counter-clockwise rotation about the origin [deg]");
+    declare_length(prm, "Offset x", "0", "Lateral shift along x, applied after the rotation", true);
+    declare_length(prm, "Offset y", "0", "Lateral shift along y, applied after the rotation", true);
+    declare_length(prm, "Vertical offset", "0", "Added to the height", true);
     std::lock_guard<std::mutex> lock(registry_mutex);
     for (const auto &e : registry())
       {

@@ -14,7 +14,12 @@ namespace nappe
   void write_atomically(const std::string &path, const std::function<void(std::ostream &)> &write)
   {
     const std::string temporary = path + ".tmp" + std::to_string(::getpid());
-    bool              written   = false;
+    const auto        fail      = [&](const int reason) {
+      std::remove(temporary.c_str());
+      AssertThrow(false, dealii::ExcMessage("Writing '" + path + "' failed (" +
+                                            (reason ? std::string(std::strerror(reason)) : "disk full?") +
+                                            "); nothing was written under that name."));
+    };
     {
       std::ofstream out(temporary);
       AssertThrow(out, dealii::ExcMessage("Cannot open '" + temporary + "' for writing: " + std::strerror(errno) + "."));
@@ -22,22 +27,18 @@ namespace nappe
         {
           write(out);
           out.close();
-          written = static_cast<bool>(out);
         }
       catch (...)
         {
-          std::remove(temporary.c_str());
-          throw;
+          if (out) // the writer failed for its own reason: pass that on
+            {
+              std::remove(temporary.c_str());
+              throw;
+            }
         }
+      if (!out) // a library writer that checks its stream reports a generic I/O error: name the file instead
+        fail(errno);
     }
-    if (!written)
-      {
-        const int reason = errno;
-        std::remove(temporary.c_str());
-        AssertThrow(false, dealii::ExcMessage("Writing '" + path + "' failed (" +
-                                              (reason ? std::string(std::strerror(reason)) : "disk full?") +
-                                              "); nothing was written under that name."));
-      }
     if (std::rename(temporary.c_str(), path.c_str()) != 0)
       {
         const int reason = errno;

@@ -24,6 +24,23 @@ namespace nappe
     /// 2D sheets is 0.01–1 J/m², and nothing sticks with more than tens of J/m²) [J/m²].
     const double lowest_gamma = 1e-5, highest_gamma = 50.0;
 
+    /// A bound as a reader writes it (1e-05, 50), not as std::to_string does (0.000010, 50.000000).
+    std::string short_number(const double value)
+    {
+      std::ostringstream out;
+      out << std::setprecision(6) << value;
+      return out.str();
+    }
+
+    /// The likely cause of a Γ far above any adhesion: a value in mJ/m² given in J/m².
+    std::string unit_hint(const double gamma, const std::string &unit)
+    {
+      if (unit != unit_j_per_m2 || !(gamma > highest_gamma) || gamma / 1000 > highest_gamma)
+        return "";
+      return " A value in mJ/m^2? Then set 'Work of adhesion unit = mJ/m^2' (" + short_number(gamma) +
+             " mJ/m^2 = " + short_number(gamma / 1000) + " J/m^2).";
+    }
+
     /// The registry, seeded with the built-in laws on first use (no static-initialisation order issues).
     std::map<std::string, AdhesionLawInfo> &registry()
     {
@@ -174,8 +191,9 @@ namespace nappe
       }
     AssertThrow(std::isfinite(gamma) && gamma >= lowest_gamma && gamma <= highest_gamma,
                 dealii::ExcMessage("Adhesion/Work of adhesion = " + text + " " + unit +
-                                   " is outside the admissible range " + std::to_string(lowest_gamma / unit_factor) +
-                                   " to " + std::to_string(highest_gamma / unit_factor) + " " + unit + "."));
+                                   " is outside the admissible range " + short_number(lowest_gamma / unit_factor) +
+                                   " to " + short_number(highest_gamma / unit_factor) + " " + unit + "." +
+                                   unit_hint(gamma, unit)));
 
     const double h0 = prm.get_double("Equilibrium separation") * units::nanometer;
     AssertThrow(std::isfinite(h0) && h0 >= 0.01 * units::nanometer && h0 <= 50 * units::nanometer,

@@ -54,7 +54,7 @@ namespace nappe
 
     std::string usage(const CaseApp &app)
     {
-      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]... [--no-plots]\n       " +
+      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]... [--no-plots] [--quiet]\n       " +
                          app.name + " --demo [--set …] | --print-defaults | --validate CASE.prm [--set …] | --help";
       for (const auto &[command, f] : app.commands)
         text += " | " + command;
@@ -65,9 +65,10 @@ namespace nappe
     void remove_previous_results(const OutputSettings &output, std::vector<std::string> suffixes)
     {
       suffixes.push_back(".used.prm");
-      if (!fs::is_directory(output.directory))
+      std::error_code ignored;
+      if (!fs::is_directory(output.directory, ignored))
         return;
-      for (const auto &file : fs::directory_iterator(output.directory))
+      for (const auto &file : fs::directory_iterator(output.directory, ignored))
         {
           const std::string name = file.path().filename().string();
           if (name.rfind(output.base_name, 0) != 0)
@@ -75,7 +76,7 @@ namespace nappe
           const std::string rest = name.substr(output.base_name.size());
           for (const auto &suffix : suffixes)
             if (rest == suffix || (suffix == "_NNNN.vtu" && std::regex_match(rest, std::regex("_[0-9]{4}\\.vtu"))))
-              fs::remove(file.path());
+              fs::remove(file.path(), ignored); // a file that cannot be removed is named by the next write
         }
     }
 
@@ -140,10 +141,10 @@ namespace nappe
       });
     }
 
-    /// Takes "--no-plots" out of the arguments; true if it was there.
-    bool without_plots(std::vector<std::string> &args)
+    /// Takes the option @p flag (e.g. "--no-plots") out of the arguments; true if it was there.
+    bool take_flag(std::vector<std::string> &args, const std::string &flag)
     {
-      const auto it = std::find(args.begin(), args.end(), "--no-plots");
+      const auto it = std::find(args.begin(), args.end(), flag);
       if (it == args.end())
         return false;
       args.erase(it);
@@ -160,7 +161,8 @@ namespace nappe
       dealii::ParameterHandler prm;
       declare_sheet_case_parameters(prm);
       std::vector<std::string> args     = given;
-      const bool               no_plots = without_plots(args);
+      const bool               no_plots = take_flag(args, "--no-plots");
+      const bool               quiet    = take_flag(args, "--quiet");
       if (args.empty() || args[0] == "--help" || args[0] == "-h")
         {
           out << app.name << ": " << app.description << "\n\n" << usage(app);
@@ -192,7 +194,18 @@ namespace nappe
         if (root)
           remove_previous_results(sheet_case.output, app.result_suffixes);
       });
-      const CaseOutcome outcome = app.run(prm, sheet_case, comm);
+      const CaseOutcome outcome = [&] {
+        try
+          {
+            return app.run(prm, sheet_case, comm, quiet);
+          }
+        catch (...)
+          {
+            if (root) // a failed run leaves no partial result set behind
+              remove_previous_results(sheet_case.output, app.result_suffixes);
+            throw;
+          }
+      }();
       if (!outcome.results_written)
         return outcome.exit_code;
       run_collectively(comm, [&] {

@@ -22,27 +22,26 @@ namespace nappe
     }
   } // namespace
 
-  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *log,
-                                bool quiet)
+  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *report,
+                                std::ostream *log)
   {
-    std::ostream *progress = quiet ? nullptr : log;
     AssertThrow(c.problem.model.adhesion(),
                 dealii::ExcMessage("Substrate/Enabled: nappe-limits needs a substrate (true)."));
     const AdhesionPathSettings settings =
       c.fabrication.enabled ? with_stops(c.limits, verdict_work_of_adhesion_values(c.fabrication)) : c.limits;
     LimitsRun run;
-    run.limits = find_adhesion_limits(c.problem, settings, comm, progress);
+    run.limits = find_adhesion_limits(c.problem, settings, comm, log);
     if (c.fabrication.enabled)
       {
         run.check = fabrication_verdicts(run.limits, c.fabrication, c.problem.model.material.fracture_strain);
         if (!c.fabrication.feature_height_entry.empty())
           {
-            if (progress)
-              *progress << "Scanning the feature height (" << c.fabrication.feature_height_entry << ")\n";
+            if (log)
+              *log << "Scanning the feature height (" << c.fabrication.feature_height_entry << ")\n";
             scan_aspect_ratio(
               *run.check, c.fabrication, c.limits,
               [&](double h) { return problem_with_height(prm, c.fabrication.feature_height_entry, h); }, comm, 6,
-              progress);
+              log);
           }
       }
     const std::string stem = c.output.stem();
@@ -53,12 +52,12 @@ namespace nappe
       write_limits_json(stem + "_limits.json", c, run.limits, run.check ? &*run.check : nullptr);
     });
     run.files = {stem + "_limits.json", stem + "_adhesion_paths.csv"};
-    if (log)
+    if (report)
       {
-        print_limits_summary(c, run.limits, *log);
+        print_limits_summary(c, run.limits, *report);
         if (run.check)
-          print_fabrication_check(c, run.limits, *run.check, *log);
-        *log << "Results: " << run.files[0] << ", " << run.files[1] << "\n";
+          print_fabrication_check(c, run.limits, *run.check, *report);
+        *report << "Results: " << run.files[0] << ", " << run.files[1] << "\n";
       }
     return run;
   }

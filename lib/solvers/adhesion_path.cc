@@ -101,9 +101,9 @@ namespace nappe
       const double elapsed = timer_.wall_time();
       std::ostringstream s;
       s << "  " << (path.lowering ? "lowering" : "raising") << " Γ: " << std::lround(100 * covered)
-        << " % of the range (Γ = " << std::setprecision(3) << gamma << " J/m², " << path.solves
-        << " minimisations, " << std::setprecision(2) << std::fixed << elapsed << " s; about "
-        << elapsed * (1 - covered) / covered << " s left)\n";
+        << " % of the range done (Γ = " << std::setprecision(3) << gamma << " J/m², " << path.solves
+        << " minimisations, " << std::lround(elapsed) << " s; about " << std::lround(elapsed * (1 - covered) / covered)
+        << " s left on this path)\n";
       say(s.str());
     }
 

@@ -73,8 +73,9 @@ namespace nappe
   // largest. magnitude_ holds the force magnitude of the first assembly.
   double EnergyMinimizer::residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const
   {
-    const double physical = system_.physical_force_scale(level);
-    return settings_.relative_tolerance * std::max({force_scale, first_residual, magnitude_.l2_norm(), physical}) +
+    const double physical = system_.physical_force_scale(level); // infinite: not known
+    const double physical_known = std::isfinite(physical) ? physical : 0.0;
+    return settings_.relative_tolerance * std::max({force_scale, first_residual, magnitude_.l2_norm(), physical_known}) +
            settings_.absolute_tolerance;
   }
 

@@ -307,7 +307,8 @@ TEST(AdhesionLawFactory, ZeroWorkOfAdhesionIsRejectedNamingTheParameter)
           "end\n");
   });
   EXPECT_NE(msg.find("Adhesion/Work of adhesion"), std::string::npos) << msg;
-  EXPECT_NE(msg.find("positive"), std::string::npos) << msg;
+  EXPECT_NE(msg.find("outside the admissible range"), std::string::npos) << msg;
+  EXPECT_NE(msg.find("1e-05 to 50 J/m^2"), std::string::npos) << msg;
 }
 
 TEST(AdhesionLawFactory, NegativeEquilibriumSeparationIsRejectedNamingTheParameter)

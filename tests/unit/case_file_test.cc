@@ -159,3 +159,87 @@ TEST(CaseFile, AMissingFileIsNamed)
   const std::string m = message_of([&] { read_parameter_file(prm, "no/such/case.prm"); });
   EXPECT_NE(m.find("no/such/case.prm"), std::string::npos) << m;
 }
+
+namespace
+{
+  const char *grating_cell = R"(
+subsection Domain
+  set Shape = rectangle
+  set Length x = 20
+  set Length y = 2
+  set Periodic = true
+end
+subsection Edges
+  set Conditions =
+end
+subsection Substrate
+  set Enabled = true
+end
+subsection Topography
+  set Type = sinusoidal grating
+  subsection Sinusoidal grating
+    set Wavelength = 30
+  end
+end
+)";
+} // namespace
+
+// A periodic cell that is not a whole number of the topography's periods would solve a surface with a
+// kink at the cell edge: refused, naming both lengths.
+TEST(CaseFile, RefusesACellThatDoesNotMatchTheTopographysPeriod)
+{
+  const std::string m = message_of([] { parse(grating_cell); });
+  EXPECT_NE(m.find("not periodic on the cell"), std::string::npos) << m;
+  EXPECT_NE(m.find("Length x = 20 nm, Length y = 2 nm"), std::string::npos) << m;
+  EXPECT_NE(m.find("(30, 0) nm"), std::string::npos) << m;
+  EXPECT_NE(m.find("Periods per cell"), std::string::npos) << m;
+  // A formula is checked by sampling the cell's edges: sin(2πx/30 nm) on a 20 nm cell.
+  const std::string f = message_of([] {
+    parse(grating_cell, {"Topography/Type=formula", "Topography/Formula/Expression=sin(2*pi*x/30)"});
+  });
+  EXPECT_NE(f.find("between opposite edges"), std::string::npos) << f;
+}
+
+TEST(CaseFile, PeriodsPerCellFitsTheCellToTheLattice)
+{
+  const SheetCase grating = parse(grating_cell, {"Domain/Periods per cell=2"});
+  EXPECT_DOUBLE_EQ(grating.problem.domain.length_x, 60e-9);
+  EXPECT_DOUBLE_EQ(grating.problem.domain.length_y, 2e-9); // along the ridges: as given
+  const SheetCase hexagonal = parse(grating_cell, {"Domain/Periods per cell=1", "Topography/Type=pillar",
+                                                   "Topography/Array=hexagonal", "Topography/Array pitch=80"});
+  EXPECT_EQ(hexagonal.problem.domain.shape, SheetDomain::Shape::rhombus);
+  EXPECT_DOUBLE_EQ(hexagonal.problem.domain.length_x, 80e-9);
+  EXPECT_NE(message_of([] { parse(grating_cell, {"Domain/Periods per cell=1", "Topography/Type=formula"}); })
+              .find("no square, hexagonal"),
+            std::string::npos);
+}
+
+TEST(CaseFile, ParameterMessagesNameTheLineAndTheClosestEntry)
+{
+  dealii::ParameterHandler prm;
+  declare_sheet_case_parameters(prm);
+  const std::string typo = message_of([&] {
+    read_parameter_text(prm, "subsection Adhesion\n  set Work of adhesoin = 0.3\nend\n", "t1.prm");
+  });
+  EXPECT_NE(typo.find("t1.prm:2: no entry 'Work of adhesoin' in Adhesion/ (did you mean 'Work of adhesion'?)"),
+            std::string::npos)
+    << typo;
+  const std::string misplaced =
+    message_of([&] { read_parameter_text(prm, "subsection Domain\n  set Pressure = 5\nend\n", "t2.prm"); });
+  EXPECT_NE(misplaced.find("'Pressure' belongs to subsection Loads"), std::string::npos) << misplaced;
+  const std::string selection = message_of([&] { apply_override(prm, "Domain/Shape=square"); });
+  EXPECT_NE(selection.find("one of 'rectangle', 'rhombus', 'disk', 'mesh file'"), std::string::npos) << selection;
+  const std::string unit = message_of([&] { apply_override(prm, "Domain/Length x=20 nm"); });
+  EXPECT_NE(unit.find("write the number alone"), std::string::npos) << unit;
+}
+
+// A length typed in metres into an nm entry, or Γ in mJ/m² typed as J/m², is refused with the likely cause.
+TEST(CaseFile, AValueInTheWrongUnitIsRefusedWithTheLikelyCause)
+{
+  const std::string metres = message_of([] { parse(rectangle, {"Domain/Length x=2e-8"}); });
+  EXPECT_NE(metres.find("Domain/Length x = 2e-8 nm is outside the admissible range"), std::string::npos) << metres;
+  EXPECT_NE(metres.find("metres typed into an nm entry"), std::string::npos) << metres;
+  const std::string millijoules = message_of([] { parse(grating_cell, {"Adhesion/Work of adhesion=450"}); });
+  EXPECT_NE(millijoules.find("A value in mJ/m^2?"), std::string::npos) << millijoules;
+  EXPECT_NE(millijoules.find("450 mJ/m^2 = 0.45 J/m^2"), std::string::npos) << millijoules;
+}

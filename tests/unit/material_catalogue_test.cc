@@ -1,5 +1,6 @@
 // The shipped materials catalogue (share/materials.prm) and its reader.
 #include <nappe/base/units.h>
+#include <nappe/physics/catalogue_sources.h>
 #include <nappe/physics/material_catalogue.h>
 
 #include <gtest/gtest.h>
@@ -224,4 +225,37 @@ TEST(MaterialCatalogue, InterfaceWithUnknownSheetIsRejectedListingKnownMaterials
   const std::string msg  = message_of([&] { MaterialCatalogue{path}; });
   EXPECT_NE(msg.find("film"), std::string::npos) << msg;
   EXPECT_NE(msg.find("foil"), std::string::npos) << msg;
+}
+
+TEST(CatalogueSources, EveryShippedValueCarriesASourceMarkedVerifiedOrFromMemory)
+{
+  const auto sources = nappe::read_catalogue_sources(MaterialCatalogue::default_path());
+  const MaterialCatalogue catalogue;
+  // Five numbers per material (Y, nu, D, t, fracture strain) and one per interface.
+  const std::size_t expected = 5 * catalogue.material_names().size() + catalogue.interfaces().size();
+  EXPECT_GE(sources.size(), expected);
+  for (const auto &s : sources)
+    {
+      EXPECT_FALSE(s.source.empty()) << s.subject << '/' << s.entry;
+      const bool marked = s.source.find("verified") != std::string::npos ||
+                          s.source.find("from memory") != std::string::npos ||
+                          s.source.find("unknown") != std::string::npos;
+      EXPECT_TRUE(marked) << s.subject << '/' << s.entry << ": " << s.source;
+    }
+}
+
+TEST(CatalogueSources, ReadsTheCommentBesideEachValueOfAMaterial)
+{
+  const std::string path = "catalogue_sources_test.prm";
+  std::ofstream(path) << "subsection Materials\n  subsection foil\n"
+                         "    set 2D Young modulus = 100 # Author, J. Phys. 1, 2 (2000) (verified)\n"
+                         "    set Poisson ratio = 0.2\n  end\nend\n";
+  const auto sources = nappe::read_catalogue_sources(path);
+  std::remove(path.c_str());
+  ASSERT_EQ(sources.size(), 2u);
+  EXPECT_EQ(sources[0].subject, "foil");
+  EXPECT_EQ(sources[0].entry, "2D Young modulus");
+  EXPECT_EQ(sources[0].value, "100");
+  EXPECT_EQ(sources[0].source, "Author, J. Phys. 1, 2 (2000) (verified)");
+  EXPECT_EQ(sources[1].source, "");
 }

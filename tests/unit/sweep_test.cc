@@ -1,10 +1,16 @@
 // Design sweeps as library calls (io/sweep_file.h, io/sweep_records.h, runs/sweep_run.h): reading a
 // sweep file, fingerprints of a point's inputs, resumption that keeps only records computed from the
-// same inputs, and the lock of an output folder. The case (our own scenario) is a clamped 100 nm
-// square sheet under pressure, two points of a few hundred unknowns each.
+// same inputs, the lock of an output folder, per-point material data, and a sweep over a period that
+// stays right because the cell follows the topography. The cases (our own scenarios) are a clamped
+// 100 nm square sheet under pressure and a graphene strip on a grating, a few hundred unknowns each.
+#include <nappe/analysis/state_summary.h>
 #include <nappe/base/collective.h>
+#include <nappe/io/case_file.h>
+#include <nappe/io/parameter_override.h>
 #include <nappe/io/sweep_file.h>
 #include <nappe/io/sweep_records.h>
+#include <nappe/physics/material_catalogue.h>
+#include <nappe/runs/case_run.h>
 #include <nappe/runs/sweep_run.h>
 
 #include <gtest/gtest.h>
@@ -40,19 +46,56 @@ subsection Loads
 end
 )";
 
-  /// A scratch folder with case.prm and sweep.prm (the axis values given), removed afterwards.
+  const char *grating_text = R"(
+subsection Sheet
+  set Material = graphene
+end
+subsection Domain
+  set Shape = rectangle
+  set Length y = 1.25
+  set Periodic = true
+  set Periods per cell = 1
+  set Coarse cells x = 16
+  set Global refinements = 0
+end
+subsection Edges
+  set Conditions =
+end
+subsection Substrate
+  set Enabled = true
+end
+subsection Topography
+  set Type = sinusoidal grating
+  subsection Sinusoidal grating
+    set Amplitude = 1
+    set Wavelength = 20
+  end
+end
+subsection Adhesion
+  set Work of adhesion = from catalogue
+  set Substrate material = SiO2
+  set Equilibrium separation = 0.5
+end
+subsection Solver
+  set Load steps = 1
+end
+)";
+
+  /// A scratch folder with case.prm (@p case_file) and sweep.prm (one axis over @p entry with @p values),
+  /// removed afterwards.
   struct Scratch
   {
     fs::path dir;
-    Scratch(const std::string &values, const std::string &extra = "")
+    Scratch(const std::string &values, const std::string &extra = "", const std::string &entry = "Loads/Pressure",
+            const char *case_file = case_text)
       : dir(fs::temp_directory_path() / ("nappe_sweep_test_" + std::to_string(::getpid())))
     {
       fs::remove_all(dir);
       fs::create_directories(dir);
-      std::ofstream(dir / "case.prm") << case_text;
+      std::ofstream(dir / "case.prm") << case_file;
       std::ofstream(dir / "sweep.prm") << "subsection Sweep\n  set Case file = case.prm\n  set Output directory = out\n"
-                                       << extra << "  subsection Axis 1\n    set Entries = Loads/Pressure\n"
-                                       << "    set Unit = kPa\n    set Values = " << values << "\n  end\nend\n";
+                                       << extra << "  subsection Axis 1\n    set Entries = " << entry << "\n"
+                                       << "    set Values = " << values << "\n  end\nend\n";
     }
     ~Scratch() { fs::remove_all(dir); }
     std::string sweep() const { return (dir / "sweep.prm").string(); }
@@ -146,4 +189,66 @@ TEST(SweepRun, AFolderLockedByALiveProcessIsRefused)
   const std::string m = message_of([&] { run_sweep(spec, MPI_COMM_SELF, 100, nullptr); });
   EXPECT_NE(m.find("being written by process " + std::to_string(::getppid())), std::string::npos) << m;
   EXPECT_TRUE(fs::exists(fs::path(spec.output_directory) / "sweep.lock")); // not ours to remove
+}
+
+// A changed work of adhesion recomputes every point, and the numbers follow it.
+TEST(SweepRun, ChangedWorkOfAdhesionRecomputesEveryPoint)
+{
+  const Scratch s("0.5, 1", "", "Topography/Sinusoidal grating/Amplitude", grating_text);
+  const SweepSpec     spec  = read_sweep(s.sweep());
+  const PointRecord   before = compute_sweep_point(spec, 2);
+  ASSERT_TRUE(run_sweep(spec, MPI_COMM_SELF, 100, nullptr).complete);
+  std::ofstream(s.dir / "case.prm", std::ios::app) << "subsection Adhesion\n  set Work of adhesion = 0.05\nend\n";
+  const SweepSpec     changed = read_sweep(s.sweep());
+  const SweepProgress rerun   = run_sweep(changed, MPI_COMM_SELF, 100, nullptr);
+  EXPECT_EQ(rerun.kept, 0u);
+  EXPECT_EQ(rerun.computed, 2u);
+  const PointRecord after = compute_sweep_point(changed, 2);
+  EXPECT_DOUBLE_EQ(after.work_of_adhesion, 0.05);
+  EXPECT_NE(after.values.back(), before.values.back()) << "energy per area must follow Γ";
+}
+
+// A sweep over the sheet material takes each pair's Γ from the catalogue and each material's fracture
+// strain (share/materials.prm: graphene on SiO2 0.45 J/m², Koenig et al., Nature Nanotechnology 6, 543
+// (2011); MoS2 on SiO2 0.22 J/m²; fracture strains as listed there), and writes the axis by name.
+TEST(SweepRun, MaterialAxisUsesEachPairsWorkOfAdhesionAndFractureStrain)
+{
+  const Scratch   s("graphene, MoS2", "", "Sheet/Material", grating_text);
+  const SweepSpec spec = read_sweep(s.sweep());
+  ASSERT_TRUE(spec.axes[0].categorical);
+  const MaterialCatalogue catalogue;
+  for (unsigned int p = 1; p <= 2; ++p)
+    {
+      const std::string material = spec.axes[0].values[p - 1];
+      const PointRecord r        = compute_sweep_point(spec, p);
+      EXPECT_TRUE(r.ok) << r.message;
+      EXPECT_DOUBLE_EQ(r.work_of_adhesion, catalogue.work_of_adhesion(material, "SiO2")) << material;
+      EXPECT_DOUBLE_EQ(r.fracture_strain, catalogue.material(material).fracture_strain) << material;
+      EXPECT_EQ(sweep_table_row(spec, r).substr(0, 4 + material.size()), std::to_string(p) + ",\"" + material + "\"");
+    }
+}
+
+// With Periods per cell = 1 the cell follows the grating, so a sweep over the wavelength gives the same
+// numbers as cases written by hand with the cell length set to each wavelength.
+TEST(SweepRun, SweepOverThePeriodMatchesHandWrittenCases)
+{
+  const Scratch   s("20, 30", "", "Topography/Sinusoidal grating/Wavelength", grating_text);
+  const SweepSpec spec = read_sweep(s.sweep());
+  for (unsigned int p = 1; p <= 2; ++p)
+    {
+      const std::string wavelength = spec.axes[0].values[p - 1];
+      dealii::ParameterHandler prm;
+      declare_sheet_case_parameters(prm);
+      read_parameter_text(prm, grating_text, "hand-written case");
+      apply_override(prm, "Domain/Periods per cell=0");
+      apply_override(prm, "Domain/Length x=" + wavelength);
+      apply_override(prm, "Topography/Sinusoidal grating/Wavelength=" + wavelength);
+      const SheetCase   hand  = parse_sheet_case(prm);
+      const PointRecord swept = compute_sweep_point(spec, p);
+      const CaseRun     run   = run_sheet_case(hand, MPI_COMM_SELF, nullptr, false);
+      ASSERT_TRUE(swept.ok && run.result.converged) << swept.message << run.result.message;
+      const auto values = summary_values(run.result.measures, &*run.result.conformation);
+      for (std::size_t k = 0; k < values.size(); ++k)
+        EXPECT_DOUBLE_EQ(swept.values[k], values[k]) << "wavelength " << wavelength << ", column " << k;
+    }
 }

@@ -34,10 +34,16 @@ namespace nappe
      * @param length_unit meters per formula unit (units::nanometer by default).
      * @param fd_step     finite-difference step, in the formula's unit.
      * @param support_radius_m radius [m] outside which the formula is zero, if it is localised (for arrays).
+     * @param entry       the name messages give the formula (the case file's entry by default).
+     *
+     * Throws a one-line message naming @p entry for a syntax error, an unknown name, a bad constant
+     * name, or ';' (one formula only). height() and gradient() throw, naming the point, where the
+     * formula is not finite (e.g. 1/(x-x), sqrt(-1-x*x)) or its height exceeds max_topography_height.
      */
     FormulaTopography(const std::string &expression, const std::map<std::string, double> &constants = {},
                       double length_unit = 1e-9, double fd_step = 1e-3,
-                      double support_radius_m = std::numeric_limits<double>::infinity());
+                      double support_radius_m = std::numeric_limits<double>::infinity(),
+                      const std::string &entry = "Topography/Formula/Expression");
     ~FormulaTopography() override;
 
     double               height(const dealii::Point<2> &p) const override;
@@ -47,8 +53,11 @@ namespace nappe
     double               support_radius() const override { return support; }
 
   private:
+    [[noreturn]] void fail_at(const dealii::Point<2> &p, const std::string &what_was_found,
+                              const std::string &expected) const;
+
     std::unique_ptr<dealii::FunctionParser<2>> parser;
-    std::string                                expression, constants_text;
+    std::string                                expression, entry, constants_text;
     double                                     unit, support;
   };
 } // namespace nappe
