@@ -1,0 +1,298 @@
+#include <deal.II/base/mpi_remote_point_evaluation.h>
+#include <deal.II/base/quadrature.h>
+#include <deal.II/fe/fe_values.h>
+
+#include <nappe/analysis/sheet_measures.h>
+#include <nappe/base/units.h>
+#include <nappe/io/strained_lattice.h>
+#include <nappe/physics/electronic_fields.h>
+#include <nappe/physics/strain_gradient.h>
+
+#include <cmath>
+#include <sstream>
+
+namespace nappe
+{
+  using namespace dealii;
+
+  namespace
+  {
+    /// Value, gradient and Hessian of the three components (ũ_x, ũ_y, w) at a point: 3 × (1 + 2 + 4).
+    using Jet = std::array<double, 21>;
+
+    double value(const Jet &j, unsigned int c) { return j[7 * c]; }
+    Tensor<1, 2> gradient(const Jet &j, unsigned int c) { return Tensor<1, 2>({j[7 * c + 1], j[7 * c + 2]}); }
+    Tensor<2, 2> hessian(const Jet &j, unsigned int c)
+    {
+      return Tensor<2, 2>({{j[7 * c + 3], j[7 * c + 4]}, {j[7 * c + 5], j[7 * c + 6]}});
+    }
+
+    std::string nm(double length)
+    {
+      std::ostringstream s;
+      s.precision(8);
+      s << length / units::nanometer;
+      return s.str();
+    }
+
+    /// The jets at the owned points of @p cells, computed with FEValues on the points' reference coordinates.
+    void evaluate_on_cells(const SheetSystem &system, const Vector &state, const ArrayView<Jet> &out,
+                           const Utilities::MPI::RemotePointEvaluation<2>::CellData &cells)
+    {
+      const auto        &tria = system.dof_handler().get_triangulation();
+      unsigned int       k    = 0;
+      for (unsigned int c = 0; c < cells.cells.size(); ++c)
+        {
+          const DoFHandler<2>::active_cell_iterator cell(&tria, cells.cells[c].first, cells.cells[c].second,
+                                                         &system.dof_handler());
+          const std::vector<Point<2>> points(cells.reference_point_values.begin() + cells.reference_point_ptrs[c],
+                                             cells.reference_point_values.begin() + cells.reference_point_ptrs[c + 1]);
+          const Quadrature<2> quadrature(points, std::vector<double>(points.size(), 1.0));
+          FEValues<2> fv(system.mapping(), system.finite_element(), quadrature,
+                         update_values | update_gradients | update_hessians);
+          fv.reinit(cell);
+          std::vector<dealii::Vector<double>>    values(points.size(), dealii::Vector<double>(3));
+          std::vector<std::vector<Tensor<1, 2>>> gradients(points.size(), std::vector<Tensor<1, 2>>(3));
+          std::vector<std::vector<Tensor<2, 2>>> hessians(points.size(), std::vector<Tensor<2, 2>>(3));
+          fv.get_function_values(state, values);
+          fv.get_function_gradients(state, gradients);
+          fv.get_function_hessians(state, hessians);
+          for (unsigned int q = 0; q < points.size(); ++q, ++k)
+            for (unsigned int comp = 0; comp < 3; ++comp)
+              {
+                Jet &j          = out[k];
+                j[7 * comp]     = values[q][comp];
+                j[7 * comp + 1] = gradients[q][comp][0];
+                j[7 * comp + 2] = gradients[q][comp][1];
+                for (unsigned int a = 0; a < 2; ++a)
+                  for (unsigned int b = 0; b < 2; ++b)
+                    j[7 * comp + 3 + 2 * a + b] = hessians[q][comp][a][b];
+              }
+        }
+    }
+
+    /// The jet at each of @p points (averaged over the cells that share a point on an edge); found[i] = false
+    /// for points not on the sheet. Collective.
+    std::vector<Jet> evaluate_jets(const SheetSystem &system, const Vector &state, const std::vector<Point<2>> &points,
+                                   std::vector<bool> &found)
+    {
+      Utilities::MPI::RemotePointEvaluation<2> evaluation;
+      evaluation.reinit(points, system.dof_handler().get_triangulation(), system.mapping());
+      std::vector<Jet> per_cell, buffer;
+      evaluation.evaluate_and_process<Jet>(per_cell, buffer, [&](const ArrayView<Jet> &out, const auto &cells) {
+        evaluate_on_cells(system, state, out, cells);
+      });
+      const auto      &ptrs = evaluation.get_point_ptrs();
+      std::vector<Jet> jets(points.size());
+      found.assign(points.size(), false);
+      for (std::size_t i = 0; i < points.size(); ++i)
+        {
+          const unsigned int n = ptrs[i + 1] - ptrs[i];
+          found[i]             = n > 0;
+          jets[i].fill(0.0);
+          for (unsigned int e = ptrs[i]; e < ptrs[i + 1]; ++e)
+            for (unsigned int d = 0; d < jets[i].size(); ++d)
+              jets[i][d] += per_cell[e][d] / n;
+        }
+      return jets;
+    }
+
+    /// The electronic columns the material supports, each with its evaluation from (strain, gradient).
+    struct Columns
+    {
+      std::vector<std::string> names = {"strain_xx", "strain_yy", "strain_xy"};
+      bool                     field = false, potential = false, gap = false;
+      PseudoGaugeCoupling      coupling;
+      double                   g = 0.0;
+      GapStrainCoefficient     biaxial;
+
+      explicit Columns(const SheetMaterial &m)
+      {
+        const auto type = m.lattice.type;
+        if ((type == LatticeType::honeycomb || type == LatticeType::binary_honeycomb) && m.electronic.hopping_decay > 0)
+          field = true, coupling = PseudoGaugeCoupling::of(m), names.push_back("B_K_T");
+        if (m.electronic.deformation_potential != 0.0)
+          potential = true, g = m.electronic.deformation_potential, names.push_back("V_eV");
+        if (m.electronic.biaxial_gap.known())
+          gap = true, biaxial = m.electronic.biaxial_gap, names.push_back("gap_shift_meV");
+      }
+
+      void append(const SymmetricTensor<2, 2> &e, const Tensor<3, 2> &grad_e, std::vector<double> &out) const
+      {
+        out.insert(out.end(), {e[0][0], e[1][1], e[0][1]});
+        if (field)
+          out.push_back(pseudo_magnetic_field(grad_e, coupling));
+        if (potential)
+          out.push_back(deformation_potential(e, g) / units::electronvolt);
+        if (gap)
+          out.push_back(band_gap_shift(e, biaxial) / (1e-3 * units::electronvolt));
+      }
+    };
+
+    LatticeSites make_sites(const SheetSystem &system, const LatticeExportSettings &settings,
+                            LatticeExportReport &report)
+    {
+      const MonolayerLattice &lattice = system.model().material.lattice;
+      const MPI_Comm          comm    = system.communicator();
+      if (settings.region == LatticeExportSettings::Region::polygon)
+        return region_sites(lattice, settings.polygon, comm);
+
+      const SheetDomain &domain = system.domain();
+      AssertThrow(domain.periodic && (domain.shape == SheetDomain::Shape::rectangle ||
+                                      domain.shape == SheetDomain::Shape::rhombus),
+                  ExcMessage("Electronics/Lattice export/Region = cell needs a periodic rectangle or rhombus "
+                             "(Domain/Shape, Domain/Periodic); for other sheets give a box or polygon region."));
+      const auto [L1, L2] = domain.lattice_vectors();
+      report.periodic     = true;
+      report.supercell    = nearest_commensurate_cell(lattice, L1, L2);
+      const auto &cell    = report.supercell;
+      AssertThrow(cell.n_primitive_cells() > 0,
+                  ExcMessage("Electronics/Lattice export: the periodic cell is too small for the lattice of " +
+                             system.model().material.name + " (a = " + nm(lattice.lattice_constant) + " nm)."));
+      if (cell.largest_residual_strain() > settings.largest_residual_strain)
+        {
+          const auto [a1, a2] = lattice.primitive_vectors();
+          const auto S1 = double(cell.n[0][0]) * a1 + double(cell.n[0][1]) * a2;
+          const auto S2 = double(cell.n[1][0]) * a1 + double(cell.n[1][1]) * a2;
+          std::ostringstream message;
+          message << "Electronics/Lattice export/Largest residual strain: the periodic cell is not commensurate "
+                  << "with the lattice of " << system.model().material.name << " at the orientation "
+                  << lattice.orientation * 180 / M_PI << " deg; the nearest supercell would strain it by "
+                  << cell.largest_residual_strain() << " (limit " << settings.largest_residual_strain
+                  << "). A commensurate cell has the vectors (" << nm(S1[0]) << ", " << nm(S1[1]) << ") nm and ("
+                  << nm(S2[0]) << ", " << nm(S2[1]) << ") nm; change the Domain lengths or raise the limit.";
+          AssertThrow(false, ExcMessage(message.str()));
+        }
+      return periodic_cell_sites(lattice, cell, comm);
+    }
+
+    /// The cell and pbc of the table from the atoms (already gathered on rank 0).
+    void set_cell(const SheetSystem &system, double load_factor, const LatticeExportSettings &settings,
+                  bool periodic, AtomTable &atoms)
+    {
+      double lo[3] = {1e300, 1e300, 1e300}, hi[3] = {-1e300, -1e300, -1e300};
+      for (const Point<3> &x : atoms.positions)
+        for (unsigned int d = 0; d < 3; ++d)
+          lo[d] = std::min(lo[d], x[d]), hi[d] = std::max(hi[d], x[d]);
+      if (atoms.size() == 0)
+        std::fill(lo, lo + 3, 0.0), std::fill(hi, hi + 3, 0.0);
+      // Atoms are shifted so that they sit vacuum/2 above the bottom face (and side faces of a flake).
+      Tensor<1, 3> shift;
+      shift[2] = 0.5 * settings.vacuum - lo[2];
+      atoms.cell[2][2] = hi[2] - lo[2] + settings.vacuum;
+      if (periodic)
+        {
+          const auto [L1, L2] = system.domain().lattice_vectors();
+          const auto E        = load_factor * system.model().loads.mean_strain;
+          const Tensor<1, 2> V[2] = {L1 + E * L1, L2 + E * L2};
+          for (unsigned int v = 0; v < 2; ++v)
+            atoms.cell[v][0] = V[v][0], atoms.cell[v][1] = V[v][1];
+          atoms.pbc = {true, true, false};
+        }
+      else
+        {
+          for (unsigned int d = 0; d < 2; ++d)
+            shift[d] = 0.5 * settings.vacuum - lo[d], atoms.cell[d][d] = hi[d] - lo[d] + settings.vacuum;
+          atoms.pbc = {false, false, false};
+        }
+      for (Point<3> &x : atoms.positions)
+        x += shift;
+      std::ostringstream z;
+      z.precision(10);
+      z << -shift[2] / units::angstrom;
+      atoms.info.emplace_back("z_of_cell_bottom_in_sheet_frame_A", z.str());
+    }
+  } // namespace
+
+  AtomTable strained_lattice_atoms(const SheetSystem &system, const Vector &state, double load_factor,
+                                   const LatticeExportSettings &settings, LatticeExportReport &report)
+  {
+    const SheetModel &model = system.model();
+    AssertThrow(model.material.lattice.defined(),
+                ExcMessage("Electronics/Lattice export: the sheet material '" + model.material.name +
+                           "' has no crystal lattice; choose a catalogue monolayer in Sheet/Material."));
+    const MPI_Comm     comm  = system.communicator();
+    const LatticeSites sites = make_sites(system, settings, report);
+    std::vector<bool>  found;
+    const auto         jets  = evaluate_jets(system, state, sites.positions, found);
+    const auto         basis = model.material.lattice.basis();
+    const Columns      columns(model.material);
+    const auto         E     = load_factor * model.loads.mean_strain;
+
+    // This rank's atoms: positions (3) and columns, flattened; species by basis index.
+    std::vector<double>       local_values;
+    std::vector<std::uint8_t> local_species;
+    unsigned long long        off_sheet = 0;
+    for (std::size_t i = 0; i < sites.size(); ++i)
+      {
+        if (!found[i])
+          {
+            ++off_sheet;
+            continue;
+          }
+        const Jet         &j = jets[i];
+        const Point<2>    &X = sites.positions[i];
+        const double       h = basis[sites.basis_index[i]].height;
+        const Tensor<1, 2> grad_w = gradient(j, 2);
+        const double       n_z    = 1.0 / std::sqrt(1.0 + grad_w.norm_square());
+        const Tensor<1, 2> u      = E * X + Tensor<1, 2>({value(j, 0), value(j, 1)});
+        local_values.insert(local_values.end(), {X[0] + u[0] - h * n_z * grad_w[0], X[1] + u[1] - h * n_z * grad_w[1],
+                                                 value(j, 2) + h * n_z});
+        Tensor<2, 2> grad_u;
+        Tensor<3, 2> hess_u;
+        for (unsigned int c = 0; c < 2; ++c)
+          grad_u[c] = gradient(j, c), hess_u[c] = hessian(j, c);
+        const auto strain = membrane_strain(model, load_factor, grad_u, grad_w);
+        columns.append(strain, membrane_strain_gradient(hess_u, grad_w, hessian(j, 2), model.geometric_nonlinearity),
+                       local_values);
+        local_species.push_back(basis[sites.basis_index[i]].sublattice);
+      }
+    report.n_off_sheet = Utilities::MPI::sum(off_sheet, comm);
+    report.columns     = columns.names;
+
+    const auto all_values  = Utilities::MPI::gather(comm, local_values, 0);
+    const auto all_species = Utilities::MPI::gather(comm, local_species, 0);
+    AtomTable  atoms;
+    atoms.species_names = {model.material.lattice.species_a, model.material.lattice.species_b};
+    atoms.column_names  = columns.names;
+    const std::size_t width = 3 + columns.names.size();
+    for (std::size_t r = 0; r < all_values.size(); ++r)
+      {
+        for (std::size_t a = 0; a < all_species[r].size(); ++a)
+          {
+            const double *v = all_values[r].data() + a * width;
+            atoms.positions.emplace_back(v[0], v[1], v[2]);
+            atoms.columns.insert(atoms.columns.end(), v + 3, v + width);
+          }
+        atoms.species.insert(atoms.species.end(), all_species[r].begin(), all_species[r].end());
+      }
+    report.n_atoms = Utilities::MPI::sum<unsigned long long>(atoms.size(), comm);
+    if (Utilities::MPI::this_mpi_process(comm) == 0)
+      set_cell(system, load_factor, settings, report.periodic, atoms);
+    atoms.info.emplace_back("material", model.material.name);
+    atoms.info.emplace_back("zigzag_angle_deg", std::to_string(model.material.lattice.orientation * 180.0 / M_PI));
+    atoms.info.emplace_back("valley", "B_K_T is the pseudo-magnetic field of valley K; valley K' has -B");
+    return atoms;
+  }
+
+  LatticeExportReport export_strained_lattice(const SheetSystem &system, const Vector &state, double load_factor,
+                                              const LatticeExportSettings &settings, const std::string &base_path)
+  {
+    LatticeExportReport report;
+    const AtomTable     atoms = strained_lattice_atoms(system, state, load_factor, settings, report);
+    if (settings.write_xyz)
+      report.files.push_back(base_path + ".xyz");
+    if (settings.write_cif)
+      report.files.push_back(base_path + ".cif");
+    if (Utilities::MPI::this_mpi_process(system.communicator()) == 0)
+      {
+        if (settings.write_xyz)
+          write_extended_xyz(base_path + ".xyz", atoms);
+        if (settings.write_cif)
+          write_cif(base_path + ".cif", atoms,
+                    "strained " + system.model().material.name + " monolayer written by nappe (P 1; Angstrom)");
+      }
+    MPI_Barrier(system.communicator());
+    return report;
+  }
+} // namespace nappe
