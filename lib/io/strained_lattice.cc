@@ -1,7 +1,4 @@
-#include <deal.II/base/mpi_remote_point_evaluation.h>
-#include <deal.II/base/quadrature.h>
-#include <deal.II/fe/fe_values.h>
-
+#include <nappe/analysis/point_jets.h>
 #include <nappe/analysis/sheet_measures.h>
 #include <nappe/base/units.h>
 #include <nappe/io/strained_lattice.h>
@@ -17,84 +14,12 @@ namespace nappe
 
   namespace
   {
-    /// Value, gradient and Hessian of the three components (ũ_x, ũ_y, w) at a point: 3 × (1 + 2 + 4).
-    using Jet = std::array<double, 21>;
-
-    double value(const Jet &j, unsigned int c) { return j[7 * c]; }
-    Tensor<1, 2> gradient(const Jet &j, unsigned int c) { return Tensor<1, 2>({j[7 * c + 1], j[7 * c + 2]}); }
-    Tensor<2, 2> hessian(const Jet &j, unsigned int c)
-    {
-      return Tensor<2, 2>({{j[7 * c + 3], j[7 * c + 4]}, {j[7 * c + 5], j[7 * c + 6]}});
-    }
-
     std::string nm(double length)
     {
       std::ostringstream s;
       s.precision(8);
       s << length / units::nanometer;
       return s.str();
-    }
-
-    /// The jets at the owned points of @p cells, computed with FEValues on the points' reference coordinates.
-    void evaluate_on_cells(const SheetSystem &system, const Vector &state, const ArrayView<Jet> &out,
-                           const Utilities::MPI::RemotePointEvaluation<2>::CellData &cells)
-    {
-      const auto        &tria = system.dof_handler().get_triangulation();
-      unsigned int       k    = 0;
-      for (unsigned int c = 0; c < cells.cells.size(); ++c)
-        {
-          const DoFHandler<2>::active_cell_iterator cell(&tria, cells.cells[c].first, cells.cells[c].second,
-                                                         &system.dof_handler());
-          const std::vector<Point<2>> points(cells.reference_point_values.begin() + cells.reference_point_ptrs[c],
-                                             cells.reference_point_values.begin() + cells.reference_point_ptrs[c + 1]);
-          const Quadrature<2> quadrature(points, std::vector<double>(points.size(), 1.0));
-          FEValues<2> fv(system.mapping(), system.finite_element(), quadrature,
-                         update_values | update_gradients | update_hessians);
-          fv.reinit(cell);
-          std::vector<dealii::Vector<double>>    values(points.size(), dealii::Vector<double>(3));
-          std::vector<std::vector<Tensor<1, 2>>> gradients(points.size(), std::vector<Tensor<1, 2>>(3));
-          std::vector<std::vector<Tensor<2, 2>>> hessians(points.size(), std::vector<Tensor<2, 2>>(3));
-          fv.get_function_values(state, values);
-          fv.get_function_gradients(state, gradients);
-          fv.get_function_hessians(state, hessians);
-          for (unsigned int q = 0; q < points.size(); ++q, ++k)
-            for (unsigned int comp = 0; comp < 3; ++comp)
-              {
-                Jet &j          = out[k];
-                j[7 * comp]     = values[q][comp];
-                j[7 * comp + 1] = gradients[q][comp][0];
-                j[7 * comp + 2] = gradients[q][comp][1];
-                for (unsigned int a = 0; a < 2; ++a)
-                  for (unsigned int b = 0; b < 2; ++b)
-                    j[7 * comp + 3 + 2 * a + b] = hessians[q][comp][a][b];
-              }
-        }
-    }
-
-    /// The jet at each of @p points (averaged over the cells that share a point on an edge); found[i] = false
-    /// for points not on the sheet. Collective.
-    std::vector<Jet> evaluate_jets(const SheetSystem &system, const Vector &state, const std::vector<Point<2>> &points,
-                                   std::vector<bool> &found)
-    {
-      Utilities::MPI::RemotePointEvaluation<2> evaluation;
-      evaluation.reinit(points, system.dof_handler().get_triangulation(), system.mapping());
-      std::vector<Jet> per_cell, buffer;
-      evaluation.evaluate_and_process<Jet>(per_cell, buffer, [&](const ArrayView<Jet> &out, const auto &cells) {
-        evaluate_on_cells(system, state, out, cells);
-      });
-      const auto      &ptrs = evaluation.get_point_ptrs();
-      std::vector<Jet> jets(points.size());
-      found.assign(points.size(), false);
-      for (std::size_t i = 0; i < points.size(); ++i)
-        {
-          const unsigned int n = ptrs[i + 1] - ptrs[i];
-          found[i]             = n > 0;
-          jets[i].fill(0.0);
-          for (unsigned int e = ptrs[i]; e < ptrs[i + 1]; ++e)
-            for (unsigned int d = 0; d < jets[i].size(); ++d)
-              jets[i][d] += per_cell[e][d] / n;
-        }
-      return jets;
     }
 
     /// The electronic columns the material supports, each with its evaluation from (strain, gradient).
@@ -214,7 +139,7 @@ namespace nappe
     const MPI_Comm     comm  = system.communicator();
     const LatticeSites sites = make_sites(system, settings, report);
     std::vector<bool>  found;
-    const auto         jets  = evaluate_jets(system, state, sites.positions, found);
+    const auto         jets  = evaluate_point_jets(system, state, sites.positions, found);
     const auto         basis = model.material.lattice.basis();
     const Columns      columns(model.material);
     const auto         E     = load_factor * model.loads.mean_strain;
@@ -230,20 +155,17 @@ namespace nappe
             ++off_sheet;
             continue;
           }
-        const Jet         &j = jets[i];
-        const Point<2>    &X = sites.positions[i];
-        const double       h = basis[sites.basis_index[i]].height;
-        const Tensor<1, 2> grad_w = gradient(j, 2);
+        const PointJet    &j      = jets[i];
+        const Point<2>    &X      = sites.positions[i];
+        const double       h      = basis[sites.basis_index[i]].height;
+        const Tensor<1, 2> grad_w = j.gradients[2];
         const double       n_z    = 1.0 / std::sqrt(1.0 + grad_w.norm_square());
-        const Tensor<1, 2> u      = E * X + Tensor<1, 2>({value(j, 0), value(j, 1)});
+        const Tensor<1, 2> u      = E * X + Tensor<1, 2>({j.values[0], j.values[1]});
         local_values.insert(local_values.end(), {X[0] + u[0] - h * n_z * grad_w[0], X[1] + u[1] - h * n_z * grad_w[1],
-                                                 value(j, 2) + h * n_z});
-        Tensor<2, 2> grad_u;
-        Tensor<3, 2> hess_u;
-        for (unsigned int c = 0; c < 2; ++c)
-          grad_u[c] = gradient(j, c), hess_u[c] = hessian(j, c);
-        const auto strain = membrane_strain(model, load_factor, grad_u, grad_w);
-        columns.append(strain, membrane_strain_gradient(hess_u, grad_w, hessian(j, 2), model.geometric_nonlinearity),
+                                                 j.values[2] + h * n_z});
+        const auto strain = membrane_strain(model, load_factor, j.grad_u(), grad_w);
+        columns.append(strain,
+                       membrane_strain_gradient(j.hess_u(), grad_w, j.hessians[2], model.geometric_nonlinearity),
                        local_values);
         local_species.push_back(basis[sites.basis_index[i]].sublattice);
       }
