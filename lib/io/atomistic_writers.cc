@@ -63,7 +63,7 @@ namespace nappe
           const Point<3> &x = atoms.positions[a];
           append(text, " %.8f %.8f %.8f", x[0] / angstrom, x[1] / angstrom, x[2] / angstrom);
           for (std::size_t k = 0; k < atoms.n_columns(); ++k)
-            append(text, " %.8g", atoms.columns[a * atoms.n_columns() + k]);
+            append(text, " %.8g", atoms.columns[a * atoms.n_columns() + k] + 0.0); // + 0.0: no "-0"
           text += "\n";
           if (text.size() > (1u << 24))
             out << text, text.clear();

@@ -193,7 +193,8 @@ namespace nappe
       set_cell(system, load_factor, settings, report.periodic, atoms);
     atoms.info.emplace_back("material", model.material.name);
     atoms.info.emplace_back("zigzag_angle_deg", std::to_string(model.material.lattice.orientation * 180.0 / M_PI));
-    atoms.info.emplace_back("valley", "B_K_T is the pseudo-magnetic field of valley K; valley K' has -B");
+    if (columns.field)
+      atoms.info.emplace_back("valley", "B_K_T is the pseudo-magnetic field of valley K; valley K' has -B");
     return atoms;
   }
 
