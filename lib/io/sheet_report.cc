@@ -7,6 +7,7 @@
 #include <nappe/io/sheet_report.h>
 #include <nappe/physics/adhesion_potential.h>
 
+#include <cmath>
 #include <iomanip>
 #include <sstream>
 
@@ -81,7 +82,23 @@ namespace nappe
       json.end_object();
     }
 
-    void write_summary(const SheetCase &c, const SheetResult &r, std::ostream &out)
+    void write_lattice_export(JsonWriter &json, const SheetCase &c, const LatticeExportReport &r)
+    {
+      json.begin_object("strained_lattice");
+      json.quantity("zigzag_angle", c.electronics.zigzag_angle * 180.0 / M_PI, "deg");
+      json.value("atoms", static_cast<long long>(r.n_atoms));
+      json.value("periodic", r.periodic);
+      if (r.periodic)
+        json.quantity("residual_strain", r.supercell.largest_residual_strain(), "1");
+      json.value("atoms_off_sheet", static_cast<long long>(r.n_off_sheet));
+      json.begin_array("files");
+      for (const auto &f : r.files)
+        json.value("", f);
+      json.end_array();
+      json.end_object();
+    }
+
+    void write_summary(const SheetCase &c, const SheetResult &r, const LatticeExportReport *lattice, std::ostream &out)
     {
       const SheetModel &model = c.problem.model;
       JsonWriter        json(out);
@@ -111,6 +128,8 @@ namespace nappe
       write_extremes(json, r.measures);
       if (r.conformation)
         write_conformation(json, c, *r.conformation);
+      if (lattice)
+        write_lattice_export(json, c, *lattice);
       json.begin_array("warnings");
       for (const auto &w : r.warnings)
         json.value("", w);
@@ -120,9 +139,10 @@ namespace nappe
     }
   } // namespace
 
-  void write_sheet_summary(const std::string &path, const SheetCase &c, const SheetResult &r)
+  void write_sheet_summary(const std::string &path, const SheetCase &c, const SheetResult &r,
+                           const LatticeExportReport *lattice)
   {
-    write_atomically(path, [&](std::ostream &out) { write_summary(c, r, out); });
+    write_atomically(path, [&](std::ostream &out) { write_summary(c, r, lattice, out); });
   }
 
   void write_substrate_tables(const std::string &stem, const ConformationMeasures &m)

@@ -1,10 +1,9 @@
 #include <nappe/analysis/point_jets.h>
-#include <nappe/analysis/sheet_measures.h>
+#include <nappe/analysis/sheet_quantities.h>
 #include <nappe/base/units.h>
 #include <nappe/io/strained_lattice.h>
-#include <nappe/physics/electronic_fields.h>
-#include <nappe/physics/strain_gradient.h>
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
 
@@ -22,35 +21,38 @@ namespace nappe
       return s.str();
     }
 
-    /// The electronic columns the material supports, each with its evaluation from (strain, gradient).
+    /**
+     * The per-atom columns: the strain components and the electronic quantities of the quantity table
+     * (sheet_quantities.h) that apply to the model, named and scaled as in the fields.
+     */
     struct Columns
     {
-      std::vector<std::string> names = {"strain_xx", "strain_yy", "strain_xy"};
-      bool                     field = false, potential = false, gap = false;
-      PseudoGaugeCoupling      coupling;
-      double                   g = 0.0;
-      GapStrainCoefficient     biaxial;
+      std::vector<const SheetQuantity *> quantities;
+      std::vector<std::string>           names;
 
-      explicit Columns(const SheetMaterial &m)
+      explicit Columns(const SheetModel &model)
       {
-        const auto type = m.lattice.type;
-        if ((type == LatticeType::honeycomb || type == LatticeType::binary_honeycomb) && m.electronic.hopping_decay > 0)
-          field = true, coupling = PseudoGaugeCoupling::of(m), names.push_back("B_K_T");
-        if (m.electronic.deformation_potential != 0.0)
-          potential = true, g = m.electronic.deformation_potential, names.push_back("V_eV");
-        if (m.electronic.biaxial_gap.known())
-          gap = true, biaxial = m.electronic.biaxial_gap, names.push_back("gap_shift_meV");
+        static const char *const wanted[] = {"strain_xx", "strain_yy", "strain_xy", "pseudo_vector_potential_x",
+                                             "pseudo_vector_potential_y", "pseudo_magnetic_field_K",
+                                             "deformation_potential", "gap_shift"};
+        for (const char *name : wanted)
+          for (const SheetQuantity *q : quantities_for(model))
+            if (q->name == name && q->field)
+              {
+                quantities.push_back(q);
+                names.push_back(q->name + q->unit_suffix());
+              }
       }
 
-      void append(const SymmetricTensor<2, 2> &e, const Tensor<3, 2> &grad_e, std::vector<double> &out) const
+      bool has(const std::string &name) const
       {
-        out.insert(out.end(), {e[0][0], e[1][1], e[0][1]});
-        if (field)
-          out.push_back(pseudo_magnetic_field(grad_e, coupling));
-        if (potential)
-          out.push_back(deformation_potential(e, g) / units::electronvolt);
-        if (gap)
-          out.push_back(band_gap_shift(e, biaxial) / (1e-3 * units::electronvolt));
+        return std::find(names.begin(), names.end(), name) != names.end();
+      }
+
+      void append(const PointState &point, std::vector<double> &out) const
+      {
+        for (const SheetQuantity *q : quantities)
+          out.push_back(q->reported(point));
       }
     };
 
@@ -59,35 +61,11 @@ namespace nappe
     {
       const MonolayerLattice &lattice = system.model().material.lattice;
       const MPI_Comm          comm    = system.communicator();
+      const CommensurateCell  cell    = check_lattice_export(system.model().material, system.domain(), settings);
       if (settings.region == LatticeExportSettings::Region::polygon)
         return region_sites(lattice, settings.polygon, comm);
-
-      const SheetDomain &domain = system.domain();
-      AssertThrow(domain.periodic && (domain.shape == SheetDomain::Shape::rectangle ||
-                                      domain.shape == SheetDomain::Shape::rhombus),
-                  ExcMessage("Electronics/Lattice export/Region = cell needs a periodic rectangle or rhombus "
-                             "(Domain/Shape, Domain/Periodic); for other sheets give a box or polygon region."));
-      const auto [L1, L2] = domain.lattice_vectors();
-      report.periodic     = true;
-      report.supercell    = nearest_commensurate_cell(lattice, L1, L2);
-      const auto &cell    = report.supercell;
-      AssertThrow(cell.n_primitive_cells() > 0,
-                  ExcMessage("Electronics/Lattice export: the periodic cell is too small for the lattice of " +
-                             system.model().material.name + " (a = " + nm(lattice.lattice_constant) + " nm)."));
-      if (cell.largest_residual_strain() > settings.largest_residual_strain)
-        {
-          const auto [a1, a2] = lattice.primitive_vectors();
-          const auto S1 = double(cell.n[0][0]) * a1 + double(cell.n[0][1]) * a2;
-          const auto S2 = double(cell.n[1][0]) * a1 + double(cell.n[1][1]) * a2;
-          std::ostringstream message;
-          message << "Electronics/Lattice export/Largest residual strain: the periodic cell is not commensurate "
-                  << "with the lattice of " << system.model().material.name << " at the orientation "
-                  << lattice.orientation * 180 / M_PI << " deg; the nearest supercell would strain it by "
-                  << cell.largest_residual_strain() << " (limit " << settings.largest_residual_strain
-                  << "). A commensurate cell has the vectors (" << nm(S1[0]) << ", " << nm(S1[1]) << ") nm and ("
-                  << nm(S2[0]) << ", " << nm(S2[1]) << ") nm; change the Domain lengths or raise the limit.";
-          AssertThrow(false, ExcMessage(message.str()));
-        }
+      report.periodic  = true;
+      report.supercell = cell;
       return periodic_cell_sites(lattice, cell, comm);
     }
 
@@ -129,19 +107,51 @@ namespace nappe
     }
   } // namespace
 
+  CommensurateCell check_lattice_export(const SheetMaterial &material, const SheetDomain &domain,
+                                        const LatticeExportSettings &settings)
+  {
+    const MonolayerLattice &lattice = material.lattice;
+    AssertThrow(lattice.defined(),
+                ExcMessage("Electronics/Lattice export: the sheet material '" + material.name +
+                           "' has no crystal lattice; choose a catalogue monolayer in Sheet/Material."));
+    if (settings.region != LatticeExportSettings::Region::cell)
+      return {};
+    AssertThrow(domain.periodic &&
+                  (domain.shape == SheetDomain::Shape::rectangle || domain.shape == SheetDomain::Shape::rhombus),
+                ExcMessage("Electronics/Lattice export/Region = cell needs a periodic rectangle or rhombus "
+                           "(Domain/Shape, Domain/Periodic); for other sheets give a box or polygon region."));
+    const auto [L1, L2] = domain.lattice_vectors();
+    const auto cell     = nearest_commensurate_cell(lattice, L1, L2);
+    AssertThrow(cell.n_primitive_cells() > 0,
+                ExcMessage("Electronics/Lattice export: the periodic cell is too small for the lattice of " +
+                           material.name + " (a = " + nm(lattice.lattice_constant) + " nm)."));
+    if (cell.largest_residual_strain() > settings.largest_residual_strain)
+      {
+        const auto [a1, a2] = lattice.primitive_vectors();
+        const auto S1 = double(cell.n[0][0]) * a1 + double(cell.n[0][1]) * a2;
+        const auto S2 = double(cell.n[1][0]) * a1 + double(cell.n[1][1]) * a2;
+        std::ostringstream message;
+        message << "Electronics/Lattice export/Largest residual strain: the periodic cell is not commensurate "
+                << "with the lattice of " << material.name << " at the zigzag angle "
+                << lattice.orientation * 180 / M_PI << " deg; the nearest supercell would strain it by "
+                << cell.largest_residual_strain() << " (limit " << settings.largest_residual_strain
+                << "). A commensurate cell has the vectors (" << nm(S1[0]) << ", " << nm(S1[1]) << ") nm and ("
+                << nm(S2[0]) << ", " << nm(S2[1]) << ") nm; change the Domain lengths or raise the limit.";
+        AssertThrow(false, ExcMessage(message.str()));
+      }
+    return cell;
+  }
+
   AtomTable strained_lattice_atoms(const SheetSystem &system, const Vector &state, double load_factor,
                                    const LatticeExportSettings &settings, LatticeExportReport &report)
   {
     const SheetModel &model = system.model();
-    AssertThrow(model.material.lattice.defined(),
-                ExcMessage("Electronics/Lattice export: the sheet material '" + model.material.name +
-                           "' has no crystal lattice; choose a catalogue monolayer in Sheet/Material."));
     const MPI_Comm     comm  = system.communicator();
     const LatticeSites sites = make_sites(system, settings, report);
     std::vector<bool>  found;
     const auto         jets  = evaluate_point_jets(system, state, sites.positions, found);
     const auto         basis = model.material.lattice.basis();
-    const Columns      columns(model.material);
+    const Columns      columns(model);
     const auto         E     = load_factor * model.loads.mean_strain;
 
     // This rank's atoms: positions (3) and columns, flattened; species by basis index.
@@ -163,9 +173,9 @@ namespace nappe
         const Tensor<1, 2> u      = E * X + Tensor<1, 2>({j.values[0], j.values[1]});
         local_values.insert(local_values.end(), {X[0] + u[0] - h * n_z * grad_w[0], X[1] + u[1] - h * n_z * grad_w[1],
                                                  j.values[2] + h * n_z});
-        const auto strain = membrane_strain(model, load_factor, j.grad_u(), grad_w);
-        columns.append(strain,
-                       membrane_strain_gradient(j.hess_u(), grad_w, j.hessians[2], model.geometric_nonlinearity),
+        columns.append(make_point_state(model, LoadLevel(load_factor), X, {j.values.begin(), j.values.end()},
+                                        {j.gradients.begin(), j.gradients.end()},
+                                        {j.hessians.begin(), j.hessians.end()}),
                        local_values);
         local_species.push_back(basis[sites.basis_index[i]].sublattice);
       }
@@ -193,9 +203,26 @@ namespace nappe
       set_cell(system, load_factor, settings, report.periodic, atoms);
     atoms.info.emplace_back("material", model.material.name);
     atoms.info.emplace_back("zigzag_angle_deg", std::to_string(model.material.lattice.orientation * 180.0 / M_PI));
-    if (columns.field)
-      atoms.info.emplace_back("valley", "B_K_T is the pseudo-magnetic field of valley K; valley K' has -B");
+    if (columns.has("pseudo_magnetic_field_K_T"))
+      atoms.info.emplace_back("valley", "pseudo_magnetic_field_K_T and pseudo_vector_potential_* are those of valley "
+                                        "K; valley K' has the opposite sign");
     return atoms;
+  }
+
+  std::string describe_lattice_export(const LatticeExportReport &r)
+  {
+    std::ostringstream out;
+    out << "Strained lattice: " << r.n_atoms << " atoms";
+    if (r.periodic)
+      out << " on the commensurate supercell (residual strain " << r.supercell.largest_residual_strain() << ")";
+    else
+      out << " in the region (a flake)";
+    if (r.n_off_sheet > 0)
+      out << ", " << r.n_off_sheet << " region atoms off the sheet left out";
+    out << ":";
+    for (const auto &f : r.files)
+      out << " " << f;
+    return out.str();
   }
 
   LatticeExportReport export_strained_lattice(const SheetSystem &system, const Vector &state, double load_factor,

@@ -84,7 +84,7 @@ class LatticeFiles(unittest.TestCase):
 
     def test_strained_files_carry_strain_and_field_columns(self):
         graphene = ase.io.read(path("graphene_rippled"), format="extxyz")
-        for column in ("strain_xx", "strain_yy", "strain_xy", "B_K_T", "V_eV"):
+        for column in ("strain_xx", "strain_yy", "strain_xy", "pseudo_magnetic_field_K_T", "deformation_potential_eV"):
             self.assertIn(column, graphene.arrays)
         self.assertGreater(numpy.abs(graphene.arrays["strain_xx"]).max(), 1e-3)
         mos2 = ase.io.read(path("MoS2_rippled"), format="extxyz")
@@ -94,6 +94,17 @@ class LatticeFiles(unittest.TestCase):
         numpy.testing.assert_allclose(mos2.arrays["gap_shift_meV"], -9900 * trace / 2, rtol=1e-6, atol=1e-6)
         flake = ase.io.read(path("graphene_flake"), format="extxyz")
         self.assertEqual(list(flake.pbc), [False, False, False])
+
+    def test_biaxially_strained_mos2_case_gives_the_published_gap_shift(self):
+        # nappe-solve on tests/apps/data/mos2_biaxial_lattice.prm: 1 % equibiaxial strain, so every atom carries
+        # -99 meV (Lloyd et al., Nano Letters 16, 5836 (2016): 99 meV per % of biaxial strain).
+        name = os.path.join(DIRECTORY, "lattice-export", "mos2-biaxial_lattice.xyz")
+        if not os.path.exists(name):
+            self.skipTest("app.solve.mos2_biaxial_lattice did not run")
+        atoms = ase.io.read(name, format="extxyz")
+        self.assertEqual(len(atoms), 360)
+        numpy.testing.assert_allclose(atoms.arrays["gap_shift_meV"], -99.0, rtol=1e-9)
+        numpy.testing.assert_allclose(atoms.cell.lengths()[:2], [1.01 * 31.60, 1.01 * 32.839683], rtol=1e-7)
 
     def test_one_and_two_ranks_write_the_same_atoms(self):
         for name in ["graphene_cell", "MoS2_rippled", "graphene_flake"]:

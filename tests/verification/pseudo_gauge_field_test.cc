@@ -1,5 +1,6 @@
 // Pseudo-magnetic field of strained graphene computed from the finite element fields (second derivatives of
-// the interpolated displacement, physics/strain_gradient.h and physics/electronic_fields.h) against published
+// the interpolated displacement, physics/strain_gradient.h and physics/electronic_fields.h), as the quantity table
+// reports it (analysis/sheet_quantities.h, evaluated in the analysis loop for_each_cell), against published
 // closed forms.
 //
 // Field of valley K with the zigzag direction at angle θ from x (electronic_fields.h):
@@ -18,15 +19,13 @@
 // ∂_x d − ∂_y s, so
 //   B(r, φ) = (4ħβh₀²/(e d b⁶)) r³ e^{−2r²/b²} sin(3(φ − θ)),
 // largest at r* = (√3/2) b, φ = θ + 30°: B_max = (4ħβh₀²/(e d b³)) (3√3/8) e^{−3/2}.
-#include <deal.II/base/quadrature_lib.h>
-#include <deal.II/fe/fe_values.h>
-
 #include <nappe/analysis/point_jets.h>
+#include <nappe/analysis/sheet_measures.h>
+#include <nappe/analysis/sheet_quantities.h>
 #include <nappe/base/physical_constants.h>
 #include <nappe/base/units.h>
 #include <nappe/physics/electronic_fields.h>
 #include <nappe/physics/material_catalogue.h>
-#include <nappe/physics/strain_gradient.h>
 
 #include "common/interpolated_state.h"
 
@@ -35,6 +34,7 @@
 #include <cmath>
 #include <iomanip>
 #include <iostream>
+#include <stdexcept>
 
 using namespace nappe;
 using dealii::Point;
@@ -63,37 +63,33 @@ namespace
     return d;
   }
 
-  /// B of valley K from the fields' derivatives at a point.
-  double field_from(const PseudoGaugeCoupling &c, const Tensor<3, 2> &hess_u, const Tensor<1, 2> &grad_w,
-                    const Tensor<2, 2> &hess_w)
+  /// The quantity table's pseudo-magnetic field of valley K (sheet_quantities.h): what the fields, the extremes and
+  /// the sweep columns report.
+  const SheetQuantity &table_field(const SheetModel &model)
   {
-    return pseudo_magnetic_field(membrane_strain_gradient(hess_u, grad_w, hess_w, true), c);
+    for (const SheetQuantity *q : quantities_for(model))
+      if (q->name == "pseudo_magnetic_field_K")
+        return *q;
+    throw std::runtime_error("no pseudo_magnetic_field_K for " + model.material.name);
   }
 
-  /// Calls visit(x, B, JxW) at the Gauss points (p + 2 per direction) of the owned cells.
+  /// B of valley K [T] from the table at a point whose jet (values, gradients, Hessians) is known.
+  double field_from(const SheetModel &model, const Point<2> &x, const PointJet &j)
+  {
+    return table_field(model).evaluate(make_point_state(model, LoadLevel(), x, {j.values.begin(), j.values.end()},
+                                                        {j.gradients.begin(), j.gradients.end()},
+                                                        {j.hessians.begin(), j.hessians.end()}));
+  }
+
+  /// Calls visit(x, B, dA) at the Gauss points of the owned cells, through the analysis loop (for_each_cell).
   template <typename Visit>
   void for_each_gauss_point(const SheetSystem &system, const Vector &state, const Visit &visit)
   {
-    const PseudoGaugeCoupling c = PseudoGaugeCoupling::of(system.model().material);
-    const dealii::QGauss<2>   quadrature(system.model().discretization.degree + 2);
-    dealii::FEValues<2>       fv(system.mapping(), system.finite_element(), quadrature,
-                           dealii::update_gradients | dealii::update_hessians | dealii::update_quadrature_points |
-                             dealii::update_JxW_values);
-    std::vector<std::vector<Tensor<1, 2>>> gradients(quadrature.size(), std::vector<Tensor<1, 2>>(3));
-    std::vector<std::vector<Tensor<2, 2>>> hessians(quadrature.size(), std::vector<Tensor<2, 2>>(3));
-    for (const auto &cell : system.dof_handler().active_cell_iterators())
-      if (cell->is_locally_owned())
-        {
-          fv.reinit(cell);
-          fv.get_function_gradients(state, gradients);
-          fv.get_function_hessians(state, hessians);
-          for (unsigned int q = 0; q < quadrature.size(); ++q)
-            {
-              Tensor<3, 2> hess_u;
-              hess_u[0] = hessians[q][0], hess_u[1] = hessians[q][1];
-              visit(fv.quadrature_point(q), field_from(c, hess_u, gradients[q][2], hessians[q][2]), fv.JxW(q));
-            }
-        }
+    const SheetQuantity &B = table_field(system.model());
+    for_each_cell(system, state, LoadLevel(), [&](const CellPoints &cell) {
+      for (std::size_t k = 0; k < cell.points.size(); ++k)
+        visit(cell.points[k].x, B.evaluate(cell.points[k]), cell.weights[k]);
+    });
   }
 
   // ---------------------------------------------------------------- Gaussian bump
@@ -156,6 +152,26 @@ TEST(PseudoMagneticField, TriaxialStrainGivesTheUniformPublishedField)
     }
 }
 
+TEST(PseudoMagneticField, TriaxialFieldIsTheExtremeTheSummaryReports)
+{
+  // The same closed form through the measures that feed the JSON summary and the sweep columns
+  // (extreme "max_pseudo_magnetic_field_K" of the quantity table), at θ = 0 and 60° (sign flip).
+  const double u0 = 1e-3 / nm;
+  for (const double theta_deg : {0.0, 60.0})
+    {
+      const SheetSystem system(graphene(theta_deg * degree, 2), square(20 * nm, 2), MPI_COMM_WORLD);
+      const Vector      state = test_support::interpolated_state(system, [u0](const Point<2> &x) {
+        return std::array<double, 3>{u0 * 2 * x[0] * x[1], u0 * (x[0] * x[0] - x[1] * x[1]), 0.0};
+      });
+      const PseudoGaugeCoupling c    = PseudoGaugeCoupling::of(system.model().material);
+      const double              Bref = -4 * constants::hbar_over_e * c.hopping_decay * u0 / c.bond_length *
+                          std::cos(3 * theta_deg * degree);
+      const SheetMeasures measures = measure_sheet(system, state, LoadLevel());
+      EXPECT_NEAR(measures.at("max_pseudo_magnetic_field_K").value, Bref, 0.01 * std::abs(Bref))
+        << "theta = " << theta_deg << " deg";
+    }
+}
+
 TEST(PseudoMagneticField, GaussianBumpPeakAndItsRadiusMatchTheClosedForm)
 {
   const unsigned int me = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);
@@ -181,7 +197,7 @@ TEST(PseudoMagneticField, GaussianBumpPeakAndItsRadiusMatchTheClosedForm)
       for (std::size_t k = 0; k < ray.size(); ++k)
         {
           ASSERT_TRUE(found[k]);
-          const double B = field_from(c, jets[k].hess_u(), jets[k].gradients[2], jets[k].hessians[2]);
+          const double B = field_from(system.model(), ray[k], jets[k]);
           if (B > B_max)
             B_max = B, r_max = (ray[k] - centre).norm();
         }

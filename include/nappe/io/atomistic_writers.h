@@ -13,14 +13,14 @@ namespace nappe
 {
   /**
    * Atoms with a cell and per-atom columns, as written to extended XYZ and CIF. SI inside (m);
-   * the writers print Å. A column is a name that carries its unit ("strain_xx", "B_K_T", "V_eV").
+   * the writers print Å. A column is a name that carries its unit ("strain_xx", "pseudo_magnetic_field_K_T", "deformation_potential_eV").
    */
   struct AtomTable
   {
     std::vector<std::string>        species_names; ///< chemical symbols; atoms refer to them by index
     std::vector<std::uint8_t>       species;       ///< per atom: index into species_names
     std::vector<dealii::Point<3>>   positions;     ///< per atom [m]
-    std::vector<std::string>        column_names;  ///< per-atom real columns, e.g. "strain_xx", "B_K_T"
+    std::vector<std::string>        column_names;  ///< per-atom real columns, e.g. "strain_xx", "pseudo_magnetic_field_K_T"
     std::vector<double>             columns;       ///< atom-major: columns[a * n_columns + k], in the named unit
     std::array<dealii::Tensor<1, 3>, 3> cell;      ///< cell vectors [m]
     std::array<bool, 3>             pbc{};         ///< periodic along each cell vector

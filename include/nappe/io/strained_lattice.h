@@ -49,9 +49,10 @@ namespace nappe
    *
    * Kinematics (Kirchhoff plate, first order): an atom at reference site X and height h above the
    * middle plane goes to x = X + λE·X + ũ(X) + w(X) e_z + h n(X), n = (−∇w, 1)/√(1 + |∇w|²).
-   * Per-atom columns at X: membrane strain ε_xx, ε_yy, ε_xy (tensor shear) and, where the catalogue has
-   * the constants, the pseudo-magnetic field of valley K [T], the deformation potential [eV] and the
-   * gap shift [meV] (electronic_fields.h). The eigenstrain is not a displacement and does not move atoms.
+   * Per-atom columns at X, named and scaled as the VTU fields of the quantity table (sheet_quantities.h):
+   * membrane strain ε_xx, ε_yy, ε_xy (tensor shear) and, where the catalogue has the constants, the
+   * pseudo-vector potential [T nm] and pseudo-magnetic field [T] of valley K, the deformation potential
+   * [eV] and the gap shift [meV] (electronic_fields.h). The eigenstrain is not a displacement and does not move atoms.
    *
    * A periodic cell (rectangle or rhombus) exports the nearest commensurate supercell with cell vectors
    * (I + λE)L_i and refuses, naming the residual strain and a commensurate cell size, if the residual
@@ -63,6 +64,17 @@ namespace nappe
    */
   LatticeExportReport export_strained_lattice(const SheetSystem &system, const Vector &state, double load_factor,
                                               const LatticeExportSettings &settings, const std::string &base_path);
+
+  /// One line for the run's report: atoms, supercell and residual strain (or flake), left-out atoms and files.
+  std::string describe_lattice_export(const LatticeExportReport &report);
+
+  /**
+   * Checks before any solve that the export can be done: the material has a lattice and, for Region::cell, the
+   * domain is a periodic rectangle or rhombus whose nearest commensurate supercell (returned) strains the lattice by
+   * at most the settings' limit. Throws naming the Electronics/Lattice export entry and a commensurate cell size.
+   */
+  CommensurateCell check_lattice_export(const SheetMaterial &material, const SheetDomain &domain,
+                                        const LatticeExportSettings &settings);
 
   /// The table of atoms that export_strained_lattice() writes (complete on rank 0, empty elsewhere).
   AtomTable strained_lattice_atoms(const SheetSystem &system, const Vector &state, double load_factor,
