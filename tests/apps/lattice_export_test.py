@@ -14,6 +14,7 @@ Runs under this interpreter if it has the three libraries, else under /usr/bin/p
 (skipped).
 """
 
+import json
 import os
 import subprocess
 import sys
@@ -105,6 +106,39 @@ class LatticeFiles(unittest.TestCase):
         self.assertEqual(len(atoms), 360)
         numpy.testing.assert_allclose(atoms.arrays["gap_shift_meV"], -99.0, rtol=1e-9)
         numpy.testing.assert_allclose(atoms.cell.lengths()[:2], [1.01 * 31.60, 1.01 * 32.839683], rtol=1e-7)
+
+    def test_egg_carton_maps_are_the_models_applied_to_the_solved_strain(self):
+        # nappe-solve on examples/mos2_egg_carton_gap.prm (coarsened). The gap shift is the trace model, -99/2 meV per %
+        # of tr(strain) (Lloyd et al., Nano Letters 16, 5836 (2016) calibration), applied to nappe's solved strain:
+        # at every atom of the lattice file, at every point of the map (<stem>_map.csv, the quantity table's fields on
+        # a grid), and for the extreme of the summary, which sits where the areal strain is largest.
+        base = os.path.join(DIRECTORY, "lattice-export", "egg-carton")
+        if not os.path.exists(base + "_lattice.xyz"):
+            self.skipTest("app.solve.egg_carton_lattice did not run")
+        atoms = ase.io.read(base + "_lattice.xyz", format="extxyz")
+        trace = atoms.arrays["strain_xx"] + atoms.arrays["strain_yy"]
+        self.assertGreater(trace.max(), 0.01)  # a conformed corrugation, not a flat sheet
+        numpy.testing.assert_allclose(atoms.arrays["gap_shift_meV"], -9900 * trace / 2, rtol=1e-6, atol=1e-9)
+        table = numpy.genfromtxt(base + "_map.csv", delimiter=",", names=True)
+        map_trace = table["strain_xx"] + table["strain_yy"]
+        self.assertGreater(map_trace.max(), 0.01)
+        numpy.testing.assert_allclose(table["gap_shift_meV"], -9900 * map_trace / 2, rtol=1e-6, atol=1e-6)
+        with open(base + ".json", encoding="utf-8") as f:
+            summary = json.load(f)
+        self.assertEqual(summary["conformation"]["verdict"], "conforms")
+        extremes = summary["extremes"]
+        self.assertEqual(extremes["min_gap_shift"]["unit"], "meV")
+        areal = extremes["max_areal_strain"]
+        self.assertGreater(areal["value"], 0.0)
+        self.assertAlmostEqual(extremes["min_gap_shift"]["value"] / (-9900 * areal["value"] / 2), 1.0, places=6)
+        for axis in ("x", "y"):
+            self.assertAlmostEqual(extremes["min_gap_shift"][axis]["value"], areal[axis]["value"], places=6)
+        self.assertEqual(summary["strained_lattice"]["atoms"], len(atoms))
+        # The graphene file: V = g tr(strain) with g = 4 eV (catalogue; Choi, Jhi & Son, PRB 81, 081407(R) (2010)).
+        graphene = ase.io.read(path("graphene_rippled"), format="extxyz")
+        numpy.testing.assert_allclose(graphene.arrays["deformation_potential_eV"],
+                                      4.0 * (graphene.arrays["strain_xx"] + graphene.arrays["strain_yy"]),
+                                      rtol=1e-6, atol=1e-9)
 
     def test_one_and_two_ranks_write_the_same_atoms(self):
         for name in ["graphene_cell", "MoS2_rippled", "graphene_flake"]:
