@@ -55,7 +55,10 @@ namespace nappe
       return pseudo_magnetic_field(gradient, PseudoGaugeCoupling::of(p.model->material));
     }
 
-    double potential(const P &p) { return deformation_potential(p.strain, p.model->material.electronic.deformation_potential); }
+    double potential(const P &p)
+    {
+      return deformation_potential(p.strain, p.model->material.electronic.deformation_potential);
+    }
     double gap_shift(const P &p) { return band_gap_shift(p.strain, p.model->material.electronic.biaxial_gap); }
 
     SheetQuantity quantity(std::string name, std::string unit, double si_per_unit, std::string description,
@@ -162,7 +165,8 @@ namespace nappe
                               Extreme::smallest, "min_deformation_potential")),
         needing(has_gap_coefficient,
                 extreme(quantity("gap_shift", "meV", mev,
-                                 "optical band-gap shift, trace model calibrated on the biaxial coefficient", gap_shift),
+                                 "optical band-gap shift, trace model calibrated on the biaxial coefficient",
+                                 gap_shift),
                         Extreme::largest, "max_gap_shift")),
         needing(has_gap_coefficient,
                 other_extreme(quantity("gap_shift", "meV", mev,
