@@ -4,4 +4,5 @@ set -euo pipefail
 here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 "$here/scripts/build.sh"
 cd "$here/build"
-ctest --output-on-failure "$@"
+# Two tests at a time (the development and CI machines have two cores; MPI tests oversubscribe).
+ctest --output-on-failure -j 2 "$@"

@@ -80,9 +80,9 @@ int main(int argc, char **argv)
   app.demo_case       = demo_case;
   app.result_suffixes = {"_limits.json", "_adhesion_paths.csv"};
   app.plot_script = "plot_limits.py";
-  app.run = [](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm) {
-    const bool             root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const nappe::LimitsRun run  = nappe::run_adhesion_limits(prm, c, comm, root ? &std::cout : nullptr);
+  app.run = [](dealii::ParameterHandler &prm, const nappe::SheetCase &c, MPI_Comm comm, bool quiet) {
+    std::ostream *const    out = dealii::Utilities::MPI::this_mpi_process(comm) == 0 ? &std::cout : nullptr;
+    const nappe::LimitsRun run = nappe::run_adhesion_limits(prm, c, comm, out, quiet ? nullptr : out);
     return nappe::CaseOutcome{run.complete() ? 0 : 2, true};
   };
   return nappe::run_case_app(argc, argv, app);

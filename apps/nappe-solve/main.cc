@@ -87,9 +87,9 @@ int main(int argc, char **argv)
   app.result_suffixes = {".json", ".pvtu", "_NNNN.vtu", "_strain_histogram.csv", "_suspended_regions.csv",
                          "_topography.csv", "_map.csv"};
   app.plot_script = "plot_case.py";
-  app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm) {
+  app.run = [](dealii::ParameterHandler &, const nappe::SheetCase &c, MPI_Comm comm, bool quiet) {
     const bool            root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
-    const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root ? &std::cout : nullptr);
+    const nappe::CaseRun run  = nappe::run_sheet_case(c, comm, root && !quiet ? &std::cout : nullptr);
     if (root)
       nappe::print_sheet_summary(c, run.result, run.files, std::cout);
     return nappe::CaseOutcome{run.result.converged ? 0 : 2, run.result.converged};

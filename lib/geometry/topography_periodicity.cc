@@ -61,7 +61,10 @@ namespace nappe
       s << "its height differs by up to " << worst * 1e9 << " nm (at " << in_nm(where)
         << ") between opposite edges of the cell, which are " << in_nm(shift) << " apart";
       if (worst <= tolerance)
-        s.str("its slope jumps by up to " + std::to_string(worst_slope) + " between opposite edges of the cell");
+        {
+          s.str("");
+          s << "its slope jumps by up to " << worst_slope << " between opposite edges of the cell";
+        }
       return s.str();
     }
   } // namespace

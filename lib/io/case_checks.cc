@@ -187,7 +187,7 @@ namespace nappe
         const double elements = f.length / r.element_size;
         r.lines.push_back(f.name + " " + number(f.length / nm) + " nm: " + number(elements, 2) + " elements (needs " +
                           number(f.elements_needed, 2) + ")");
-        if (elements < f.elements_needed)
+        if (elements < f.elements_needed * (1 - 1e-9)) // exactly one element per pixel is enough
           r.warnings.push_back("the topography's " + f.name + " (" + number(f.length / nm) + " nm) is resolved by " +
                                number(elements, 2) + " elements, fewer than " + number(f.elements_needed, 2) +
                                ": the substrate is seen coarser than it is; raise Domain/Global refinements");

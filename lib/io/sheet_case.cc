@@ -10,6 +10,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iomanip>
 #include <sstream>
 
 namespace nappe
@@ -53,16 +54,27 @@ namespace nappe
      * @p low_open excludes the lower bound.
      */
     double admissible(ParameterHandler &prm, const std::string &section, const std::string &entry, double low,
-                      double high, const std::string &unit, bool low_open = false)
+                      double high, const std::string &unit, bool low_open = false, const std::string &cause_low = "")
     {
       const double value = prm.get_double(entry);
       const bool   ok    = std::isfinite(value) && (low_open ? value > low : value >= low) && value <= high;
       std::ostringstream range;
       range << (low_open ? "(" : "[") << low << ", " << high << "]";
       AssertThrow(ok, ExcMessage(section + "/" + entry + " = " + prm.get(entry) + " " + unit +
-                                 " is outside the admissible range " + range.str() + " " + unit + "."));
+                                 " is outside the admissible range " + range.str() + " " + unit + "." +
+                                 (value < low && !cause_low.empty() ? " " + cause_low : "")));
       return value;
     }
+
+    /// A length as a reader writes it, in nm (30, not 30.000000).
+    std::string in_nm(const double length)
+    {
+      std::ostringstream s;
+      s << std::setprecision(6) << length / units::nanometer;
+      return s.str();
+    }
+
+    const std::string metres_in_nm = "A length in metres typed into an nm entry? (1e-8 m = 10 nm)";
 
     std::string id_list(const std::vector<types::boundary_id> &ids)
     {
@@ -220,9 +232,9 @@ namespace nappe
       prm.enter_subsection("Domain");
       periods_per_cell     = prm.get_integer("Periods per cell");
       d.shape              = SheetDomain::parse_shape(prm.get("Shape"));
-      d.length_x           = admissible(prm, "Domain", "Length x", 1e-3, 1e7, "nm") * units::nanometer;
-      d.length_y           = admissible(prm, "Domain", "Length y", 1e-3, 1e7, "nm") * units::nanometer;
-      d.radius             = admissible(prm, "Domain", "Radius", 1e-3, 1e7, "nm") * units::nanometer;
+      d.length_x           = admissible(prm, "Domain", "Length x", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
+      d.length_y           = admissible(prm, "Domain", "Length y", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
+      d.radius             = admissible(prm, "Domain", "Radius", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
       d.periodic           = prm.get_bool("Periodic");
       d.coarse_cells_x     = prm.get_integer("Coarse cells x");
       d.coarse_cells_y     = prm.get_integer("Coarse cells y");
@@ -296,8 +308,8 @@ namespace nappe
               const std::string why = periodicity_mismatch(*topography, p.domain.bounding_box().first, a1, a2);
               AssertThrow(why.empty(),
                           ExcMessage("Topography is not periodic on the cell (Domain/Length x = " +
-                                     std::to_string(p.domain.length_x * 1e9) + " nm, Length y = " +
-                                     std::to_string(p.domain.length_y * 1e9) + " nm): " + why +
+                                     in_nm(p.domain.length_x) + " nm, Length y = " +
+                                     in_nm(p.domain.length_y) + " nm): " + why +
                                      ". Make the cell a whole number of periods, or set Domain/Periods per cell."));
             }
           p.model.substrate = std::make_shared<AdhesionPotential>(topography, law, gap_measure);

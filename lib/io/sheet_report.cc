@@ -111,6 +111,8 @@ namespace nappe
       json.quantity("youngs_modulus_2d", model.material.youngs_modulus_2d, "N/m");
       json.quantity("poisson_ratio", model.material.poisson_ratio, "1");
       json.quantity("bending_rigidity", model.material.bending_rigidity / units::electronvolt, "eV");
+      if (model.material.fracture_strain > 0) // 0: unknown, and then absent rather than a number
+        json.quantity("fracture_strain", model.material.fracture_strain, "1");
       json.end_object();
       json.begin_object("discretization");
       json.value("cells", static_cast<long long>(r.cells));
@@ -271,7 +273,13 @@ namespace nappe
     out << "Max deflection:         " << w.value / nm << " nm at (" << w.location[0] / nm << ", " << w.location[1] / nm
         << ") nm\n";
     out << "Peak principal strain:  " << 100 * e1.value << " % at (" << e1.location[0] / nm << ", "
-        << e1.location[1] / nm << ") nm\n";
+        << e1.location[1] / nm << ") nm";
+    const SheetMaterial &sheet = c.problem.model.material;
+    if (sheet.fracture_strain > 0)
+      out << "; fracture strain of " << sheet.name << " " << 100 * sheet.fracture_strain << " %";
+    else
+      out << "; fracture strain of " << sheet.name << " unknown";
+    out << "\n";
     for (const auto &warning : r.warnings)
       out << "WARNING: " << warning << "\n";
     out << "Largest areal strain:   " << 100 * m.at("max_areal_strain").value << " %\n";

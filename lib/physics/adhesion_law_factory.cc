@@ -32,6 +32,15 @@ namespace nappe
       return out.str();
     }
 
+    /// The likely cause of a Γ far above any adhesion: a value in mJ/m² given in J/m².
+    std::string unit_hint(const double gamma, const std::string &unit)
+    {
+      if (unit != unit_j_per_m2 || !(gamma > highest_gamma) || gamma / 1000 > highest_gamma)
+        return "";
+      return " A value in mJ/m^2? Then set 'Work of adhesion unit = mJ/m^2' (" + short_number(gamma) +
+             " mJ/m^2 = " + short_number(gamma / 1000) + " J/m^2).";
+    }
+
     /// The registry, seeded with the built-in laws on first use (no static-initialisation order issues).
     std::map<std::string, AdhesionLawInfo> &registry()
     {
@@ -183,7 +192,8 @@ namespace nappe
     AssertThrow(std::isfinite(gamma) && gamma >= lowest_gamma && gamma <= highest_gamma,
                 dealii::ExcMessage("Adhesion/Work of adhesion = " + text + " " + unit +
                                    " is outside the admissible range " + short_number(lowest_gamma / unit_factor) +
-                                   " to " + short_number(highest_gamma / unit_factor) + " " + unit + "."));
+                                   " to " + short_number(highest_gamma / unit_factor) + " " + unit + "." +
+                                   unit_hint(gamma, unit)));
 
     const double h0 = prm.get_double("Equilibrium separation") * units::nanometer;
     AssertThrow(std::isfinite(h0) && h0 >= 0.01 * units::nanometer && h0 <= 50 * units::nanometer,

@@ -54,7 +54,7 @@ namespace nappe
 
     std::string usage(const CaseApp &app)
     {
-      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]... [--no-plots]\n       " +
+      std::string text = "usage: " + app.name + " CASE.prm [--set Section/Entry=value]... [--no-plots] [--quiet]\n       " +
                          app.name + " --demo [--set …] | --print-defaults | --validate CASE.prm [--set …] | --help";
       for (const auto &[command, f] : app.commands)
         text += " | " + command;
@@ -141,10 +141,10 @@ namespace nappe
       });
     }
 
-    /// Takes "--no-plots" out of the arguments; true if it was there.
-    bool without_plots(std::vector<std::string> &args)
+    /// Takes the option @p flag (e.g. "--no-plots") out of the arguments; true if it was there.
+    bool take_flag(std::vector<std::string> &args, const std::string &flag)
     {
-      const auto it = std::find(args.begin(), args.end(), "--no-plots");
+      const auto it = std::find(args.begin(), args.end(), flag);
       if (it == args.end())
         return false;
       args.erase(it);
@@ -161,7 +161,8 @@ namespace nappe
       dealii::ParameterHandler prm;
       declare_sheet_case_parameters(prm);
       std::vector<std::string> args     = given;
-      const bool               no_plots = without_plots(args);
+      const bool               no_plots = take_flag(args, "--no-plots");
+      const bool               quiet    = take_flag(args, "--quiet");
       if (args.empty() || args[0] == "--help" || args[0] == "-h")
         {
           out << app.name << ": " << app.description << "\n\n" << usage(app);
@@ -196,7 +197,7 @@ namespace nappe
       const CaseOutcome outcome = [&] {
         try
           {
-            return app.run(prm, sheet_case, comm);
+            return app.run(prm, sheet_case, comm, quiet);
           }
         catch (...)
           {

@@ -22,7 +22,8 @@ namespace nappe
     }
   } // namespace
 
-  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *log)
+  LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &c, MPI_Comm comm, std::ostream *report,
+                                std::ostream *log)
   {
     AssertThrow(c.problem.model.adhesion(),
                 dealii::ExcMessage("Substrate/Enabled: nappe-limits needs a substrate (true)."));
@@ -51,12 +52,12 @@ namespace nappe
       write_limits_json(stem + "_limits.json", c, run.limits, run.check ? &*run.check : nullptr);
     });
     run.files = {stem + "_limits.json", stem + "_adhesion_paths.csv"};
-    if (log)
+    if (report)
       {
-        print_limits_summary(c, run.limits, *log);
+        print_limits_summary(c, run.limits, *report);
         if (run.check)
-          print_fabrication_check(c, run.limits, *run.check, *log);
-        *log << "Results: " << run.files[0] << ", " << run.files[1] << "\n";
+          print_fabrication_check(c, run.limits, *run.check, *report);
+        *report << "Results: " << run.files[0] << ", " << run.files[1] << "\n";
       }
     return run;
   }

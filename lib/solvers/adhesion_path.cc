@@ -103,12 +103,30 @@ namespace nappe
       return next;
     }
 
-    std::string describe(const AdhesionPathPoint &p)
+    /// How far a path has come through its Γ range (in ln Γ, the way it steps) and, from the time spent,
+    /// about how long the rest takes.
+    struct PathProgress
+    {
+      double start, end;
+
+      std::string at(const double gamma, const double elapsed) const
+      {
+        const double done = std::clamp(std::log(gamma / start) / std::log(end / start), 0.0, 1.0);
+        std::ostringstream s;
+        s << "; " << std::lround(100 * done) << " % of the range done";
+        if (done > 0.0 && done < 1.0)
+          s << ", about " << std::lround(elapsed * (1 - done) / done) << " s left on this path";
+        return s.str();
+      }
+    };
+
+    std::string describe(const AdhesionPathPoint &p, const std::string &progress)
     {
       std::ostringstream s;
       s << std::setprecision(5) << "  Γ = " << p.work_of_adhesion << " J/m²: conformed " << std::setprecision(4)
         << 100 * p.conformed_fraction << " %, energy " << std::setprecision(5) << p.energy_per_area.total()
-        << " J/m² (" << p.newton_iterations << " Newton iterations)" << (p.after_jump ? " after a jump" : "") << "\n";
+        << " J/m² (" << p.newton_iterations << " Newton iterations" << (p.after_jump ? ", after a jump" : "")
+        << progress << ")\n";
       return s.str();
     }
 
@@ -135,7 +153,8 @@ namespace nappe
           return path;
         }
       path.points.push_back(measure(state, gamma, load.newton_iterations));
-      say(describe(path.points.back()));
+      const PathProgress progress{gamma, end};
+      say(describe(path.points.back(), progress.at(gamma, timer.wall_time())));
 
       const double h0    = adhesion_.law().equilibrium_gap();
       double       step  = settings_.initial_step;
@@ -183,7 +202,7 @@ namespace nappe
           state            = trial;
           gamma            = next;
           path.points.push_back(point);
-          say(describe(point));
+          say(describe(point, progress.at(point.work_of_adhesion, timer.wall_time())));
           step = continuous ? std::min(settings_.largest_step, 1.5 * step) : settings_.initial_step;
         }
       path.complete  = path.message.empty();

@@ -180,7 +180,8 @@ namespace nappe
         *log_ << s << std::flush;
     };
 
-    const double physical = system_.physical_force_scale(level);
+    const double physical = system_.physical_force_scale(level); // infinite: not known
+    const double physical_known = std::isfinite(physical) ? physical : 0.0;
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted            = state;
@@ -190,7 +191,7 @@ namespace nappe
         // the initial imbalance, the problem's physical force scale and the caller's scale, whichever
         // is largest.
         if (tolerance < 0.0)
-          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm(), physical}) +
+          tolerance = settings_.relative_tolerance * std::max({force_scale, r, magnitude.l2_norm(), physical_known}) +
                       settings_.absolute_tolerance;
         double             shift    = 0.0;
         const unsigned int negative = factorize_positive_definite(shift);

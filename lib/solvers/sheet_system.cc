@@ -342,6 +342,8 @@ namespace nappe
     double       scale = L * m.youngs_modulus_2d * 1e-3 + m.bending_rigidity / L;
     if (const AdhesionPotential *a = model_.adhesion())
       scale += L * level.adhesion * a->law().work_of_adhesion();
+    else if (model_.substrate)
+      return std::numeric_limits<double>::infinity();
     scale += level.load * std::abs(model_.loads.pressure) * L * L;
     for (const auto &f : model_.loads.point_loads)
       scale += level.load * std::abs(f.force);

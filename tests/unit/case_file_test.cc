@@ -190,7 +190,7 @@ TEST(CaseFile, RefusesACellThatDoesNotMatchTheTopographysPeriod)
 {
   const std::string m = message_of([] { parse(grating_cell); });
   EXPECT_NE(m.find("not periodic on the cell"), std::string::npos) << m;
-  EXPECT_NE(m.find("Length x = 20"), std::string::npos) << m;
+  EXPECT_NE(m.find("Length x = 20 nm, Length y = 2 nm"), std::string::npos) << m;
   EXPECT_NE(m.find("(30, 0) nm"), std::string::npos) << m;
   EXPECT_NE(m.find("Periods per cell"), std::string::npos) << m;
   // A formula is checked by sampling the cell's edges: sin(2πx/30 nm) on a 20 nm cell.
@@ -231,4 +231,15 @@ TEST(CaseFile, ParameterMessagesNameTheLineAndTheClosestEntry)
   EXPECT_NE(selection.find("one of 'rectangle', 'rhombus', 'disk', 'mesh file'"), std::string::npos) << selection;
   const std::string unit = message_of([&] { apply_override(prm, "Domain/Length x=20 nm"); });
   EXPECT_NE(unit.find("write the number alone"), std::string::npos) << unit;
+}
+
+// A length typed in metres into an nm entry, or Γ in mJ/m² typed as J/m², is refused with the likely cause.
+TEST(CaseFile, AValueInTheWrongUnitIsRefusedWithTheLikelyCause)
+{
+  const std::string metres = message_of([] { parse(rectangle, {"Domain/Length x=2e-8"}); });
+  EXPECT_NE(metres.find("Domain/Length x = 2e-8 nm is outside the admissible range"), std::string::npos) << metres;
+  EXPECT_NE(metres.find("metres typed into an nm entry"), std::string::npos) << metres;
+  const std::string millijoules = message_of([] { parse(grating_cell, {"Adhesion/Work of adhesion=450"}); });
+  EXPECT_NE(millijoules.find("A value in mJ/m^2?"), std::string::npos) << millijoules;
+  EXPECT_NE(millijoules.find("450 mJ/m^2 = 0.45 J/m^2"), std::string::npos) << millijoules;
 }

@@ -44,12 +44,14 @@ namespace nappe
     /// The plotting script run on "<stem>" after a run that wrote results (unless --no-plots).
     std::string plot_script;
     /// Runs a parsed case. @p prm holds the case's parameters.
-    std::function<CaseOutcome(dealii::ParameterHandler &prm, const SheetCase &sheet_case, MPI_Comm comm)> run;
+    /// Runs the case; with @p quiet (--quiet) only the summary is printed, not the solver's progress.
+    std::function<CaseOutcome(dealii::ParameterHandler &prm, const SheetCase &sheet_case, MPI_Comm comm, bool quiet)>
+      run;
   };
 
   /**
    * The shared main of nappe-solve and nappe-limits: "CASE.prm | --demo" followed by
-   * "--set Section/Entry=value" pairs and --no-plots, or --help, --print-defaults, --validate CASE.prm
+   * "--set Section/Entry=value" pairs, --no-plots and --quiet, or --help, --print-defaults, --validate CASE.prm
    * and the app's own commands. --validate and every run print the plausibility warnings and the
    * resolution report of the case (io/case_checks.h). Before a run, the results of an earlier run with the same stem (the app's
    * result_suffixes and <stem>.used.prm) are removed, so that a failed run leaves no stale result

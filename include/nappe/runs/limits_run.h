@@ -26,9 +26,9 @@ namespace nappe
   /**
    * Γ_hold, Γ_eq and Γ_snap of a case, then the fabrication check over the interface's Γ range and,
    * with a feature-height entry, the aspect-ratio scan (which re-reads the case from @p prm with the
-   * height changed). Writes <stem>_limits.json and <stem>_adhesion_paths.csv on rank 0 and prints the
-   * summary to @p log. Collective.
+   * height changed). Writes <stem>_limits.json and <stem>_adhesion_paths.csv on rank 0, prints the
+   * summary to @p report and the progress along the paths to @p log (either may be null). Collective.
    */
   LimitsRun run_adhesion_limits(dealii::ParameterHandler &prm, const SheetCase &sheet_case, MPI_Comm comm,
-                                std::ostream *log);
+                                std::ostream *report, std::ostream *log);
 } // namespace nappe

@@ -87,7 +87,9 @@ namespace nappe
      * size L = √(area): L·(Y·10⁻³ + Γ) + D/L + |p|·L² + Σ|F| (a 0.1 % membrane strain, the adhesion,
      * bending over the cell, the loads at level λ). Residual tolerances are relative to it, so that a
      * trivial case (a flat sheet on a flat substrate) converges at once and a result's residual is
-     * small in physical terms, not only relative to its start.
+     * small in physical terms, not only relative to its start. Infinite when the substrate term is a
+     * surface potential other than an adhesion law (e.g. a test's elastic foundation), whose force scale
+     * the model does not know: then only the relative tolerances apply.
      */
     double physical_force_scale(const LoadLevel &level) const;
 
