@@ -23,29 +23,16 @@ on PATH, run the script with /usr/bin/python3.
 """
 
 import argparse
-import contextlib
 import os
 import re
-import shlex
 import sys
-import tempfile
 
-try:
-    import numpy as np
-    import matplotlib
-    matplotlib.use("Agg")
-    import matplotlib.pyplot as plt
-    import matplotlib.tri as mtri
-except ImportError as missing:
-    sys.stderr.write(f"plot_electronics: {missing} in {sys.executable}; install Debian's python3-matplotlib and "
-                     "python3-numpy, and run this script with /usr/bin/python3 if another python3 comes first on "
-                     "PATH\n")
-    sys.exit(1)
+import nappe_plotting as npl
+from nappe_plotting import InputError, np, plt
+import matplotlib.tri as mtri
 
 FOOTER = "First-order continuum estimates, not band structures — confirm with electronic-structure calculations " \
          "and measurement."
-UMASK = os.umask(0)
-os.umask(UMASK)
 
 # map name: (column or None for the areal strain, title, unit, colormap, symmetric colour range)
 MAPS = {
@@ -56,10 +43,6 @@ MAPS = {
 }
 
 
-class BadInput(Exception):
-    pass
-
-
 def read_extended_xyz(path):
     """Returns (info dict, dict of per-atom arrays) of an extended XYZ file with R and S columns."""
     try:
@@ -68,11 +51,11 @@ def read_extended_xyz(path):
             comment = f.readline()
             rows = [f.readline().split() for _ in range(int(count_line))]
     except (OSError, ValueError) as error:
-        raise BadInput(f"{path}: cannot read an extended XYZ file ({error})")
+        raise InputError(f"{path}: cannot read an extended XYZ file ({error})")
     fields = dict(re.findall(r'(\w+)=("[^"]*"|\S+)', comment))
     info = {k: v.strip('"') for k, v in fields.items()}
     if "Properties" not in info:
-        raise BadInput(f"{path}: line 2 has no Properties=… (not an extended XYZ file)")
+        raise InputError(f"{path}: line 2 has no Properties=… (not an extended XYZ file)")
     spec = info["Properties"].split(":")
     columns, position = {}, 0
     for name, kind, width in zip(spec[0::3], spec[1::3], spec[2::3]):
@@ -81,11 +64,11 @@ def read_extended_xyz(path):
             try:
                 values = np.array([[float(r[position + k]) for k in range(width)] for r in rows])
             except (IndexError, ValueError):
-                raise BadInput(f"{path}: column '{name}' is not numeric on every atom line")
+                raise InputError(f"{path}: column '{name}' is not numeric on every atom line")
             columns[name] = values[:, 0] if width == 1 else values
         position += width
     if "pos" not in columns or "strain_xx" not in columns:
-        raise BadInput(f"{path}: expected columns pos, strain_xx, strain_yy (a nappe strained-lattice file)")
+        raise InputError(f"{path}: expected columns pos, strain_xx, strain_yy (a nappe strained-lattice file)")
     return info, columns
 
 
@@ -94,24 +77,6 @@ def unique_plane_points(columns):
     xy = np.round(columns["pos"][:, :2], 4)
     _, first = np.unique(xy, axis=0, return_index=True)
     return np.sort(first)
-
-
-def save_atomically(fig, out_dir, stem):
-    written = []
-    for ext in ("png", "svg"):
-        final = os.path.join(out_dir, f"{stem}.{ext}")
-        fd, tmp = tempfile.mkstemp(prefix=f".{stem}.", suffix=f".{ext}", dir=out_dir)
-        os.close(fd)
-        try:
-            fig.savefig(tmp, format=ext, dpi=150)
-            os.chmod(tmp, 0o666 & ~UMASK)
-            os.replace(tmp, final)
-        except BaseException:
-            with contextlib.suppress(OSError):
-                os.remove(tmp)
-            raise
-        written.append(final)
-    return written
 
 
 def draw(info, columns, name, out_dir, stem):
@@ -140,7 +105,7 @@ def draw(info, columns, name, out_dir, stem):
     fig.text(0.5, 0.01, FOOTER, ha="center", va="bottom", fontsize=7, style="italic", color="0.3")
     fig.tight_layout(rect=(0, 0.03, 1, 1))
     try:
-        return save_atomically(fig, out_dir, f"{stem}_{name}")
+        return npl.save_atomically(fig, out_dir, f"{stem}_{name}")
     finally:
         plt.close(fig)
 
@@ -152,7 +117,7 @@ def main(argv=None):
     args = parser.parse_args(argv)
     try:
         info, columns = read_extended_xyz(args.lattice)
-    except BadInput as error:
+    except InputError as error:
         sys.stderr.write(f"plot_electronics: {error}\n")
         return 2
     out_dir = args.out or os.path.dirname(os.path.abspath(args.lattice))

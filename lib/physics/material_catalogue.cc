@@ -47,6 +47,14 @@ namespace nappe
       return out.empty() ? "(none)" : out;
     }
 
+    // The catalogue writes 0 for a value no source gives: print it as unknown, never as a number.
+    std::string value_or_unknown(double value)
+    {
+      std::ostringstream text;
+      text << std::setprecision(4) << value;
+      return value == 0.0 ? "unknown" : text.str();
+    }
+
     /**
      * The names of the subsections nested directly in "Materials" and in "Interfaces", found by
      * a lexical scan (ParameterHandler needs every entry declared before it parses a file).
@@ -391,23 +399,20 @@ namespace nappe
       {
         out << std::left << std::setw(12) << m.name << std::right << std::setw(12) << m.youngs_modulus_2d
             << std::setw(8) << m.poisson_ratio << std::setw(10) << m.bending_rigidity / units::electronvolt
-            << std::setw(10) << m.nominal_thickness / units::nanometer << std::setw(16);
-        if (m.fracture_strain > 0.0)
-          out << m.fracture_strain;
-        else
-          out << "unknown";
-        out << '\n';
+            << std::setw(10) << m.nominal_thickness / units::nanometer << std::setw(16)
+            << value_or_unknown(m.fracture_strain) << '\n';
       }
-    out << "\nLattices and electron-strain coupling (0 = unknown; sources in the catalogue file)\n";
+    out << "\nLattices and electron-strain coupling (sources in the catalogue file)\n";
     out << std::left << std::setw(12) << "name" << std::setw(19) << "lattice" << std::right << std::setw(8) << "a [A]"
-        << std::setw(10) << "beta [-]" << std::setw(8) << "g [eV]" << std::setw(22) << "biaxial gap [meV/%]"
+        << std::setw(10) << "beta [-]" << std::setw(9) << "g [eV]" << std::setw(22) << "biaxial gap [meV/%]"
         << std::setw(23) << "uniaxial gap [meV/%]" << '\n';
     for (const auto &m : materials)
       out << std::left << std::setw(12) << m.name << std::setw(19) << lattice_type_name(m.lattice.type) << std::right
-          << std::setw(8) << m.lattice.lattice_constant / units::angstrom << std::setw(10) << m.electronic.hopping_decay
-          << std::setw(8) << m.electronic.deformation_potential / units::electronvolt << std::setw(22)
-          << m.electronic.biaxial_gap.value / units::mev_per_percent << std::setw(23)
-          << m.electronic.uniaxial_gap.value / units::mev_per_percent << '\n';
+          << std::setw(8) << m.lattice.lattice_constant / units::angstrom << std::setw(10)
+          << value_or_unknown(m.electronic.hopping_decay) << std::setw(9)
+          << value_or_unknown(m.electronic.deformation_potential / units::electronvolt) << std::setw(22)
+          << value_or_unknown(m.electronic.biaxial_gap.value / units::mev_per_percent) << std::setw(23)
+          << value_or_unknown(m.electronic.uniaxial_gap.value / units::mev_per_percent) << '\n';
     out << "\nInterfaces\n";
     out << std::left << std::setw(12) << "sheet" << std::setw(12) << "substrate" << std::right << std::setw(16)
         << "Gamma [J/m^2]" << std::setw(18) << "Gamma [meV/A^2]" << '\n';

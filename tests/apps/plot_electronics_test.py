@@ -8,24 +8,14 @@ interpreter if it has numpy and matplotlib, else under /usr/bin/python3; with ne
 """
 
 import os
-import subprocess
 import sys
 import tempfile
 import unittest
 
-SCRIPT = DIRECTORY = PYTHON = None
+import plot_test_support as support
+from plot_test_support import run
 
-
-def has_plotting(python):
-    try:
-        return subprocess.run([python, "-c", "import numpy, matplotlib"], capture_output=True,
-                              timeout=120).returncode == 0
-    except (OSError, subprocess.TimeoutExpired):
-        return False
-
-
-def run(*args):
-    return subprocess.run([PYTHON, SCRIPT, *args], capture_output=True, text=True, timeout=300)
+DIRECTORY = None
 
 
 class PlotElectronics(unittest.TestCase):
@@ -59,10 +49,6 @@ class PlotElectronics(unittest.TestCase):
 
 
 if __name__ == "__main__":
-    SCRIPT, DIRECTORY = sys.argv.pop(1), os.path.join(sys.argv.pop(1), "lattice-export")
-    PYTHON = next((p for p in (sys.executable, "/usr/bin/python3") if p and os.path.exists(p) and has_plotting(p)),
-                  None)
-    if PYTHON is None:
-        print("plot_electronics_test: no Python with numpy and matplotlib; skipped")
-        sys.exit(77)
+    DIRECTORY = os.path.join(sys.argv.pop(2), "lattice-export")
+    support.start("plot_electronics")
     unittest.main()
