@@ -10,7 +10,7 @@ install(TARGETS nappe EXPORT nappeTargets
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/include/nappe DESTINATION ${CMAKE_INSTALL_INCLUDEDIR})
 install(DIRECTORY ${PROJECT_SOURCE_DIR}/share/ DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe OPTIONAL)
 install(PROGRAMS ${PROJECT_SOURCE_DIR}/scripts/plot_sweep.py ${PROJECT_SOURCE_DIR}/scripts/plot_case.py
-                 ${PROJECT_SOURCE_DIR}/scripts/plot_limits.py DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
+                 ${PROJECT_SOURCE_DIR}/scripts/plot_limits.py ${PROJECT_SOURCE_DIR}/scripts/plot_electronics.py DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
 install(FILES ${PROJECT_SOURCE_DIR}/scripts/nappe_plotting.py ${PROJECT_SOURCE_DIR}/scripts/sweep_figures.py
         DESTINATION ${CMAKE_INSTALL_DATADIR}/nappe)
 

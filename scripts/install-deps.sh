@@ -12,6 +12,7 @@ packages=(
   libgtest-dev googletest libbenchmark-dev
   python3 python3-matplotlib     # plots of sweeps and regime maps
   clang                          # fuzz targets (scripts/fuzz.sh): libFuzzer, AddressSanitizer, UBSan
+  python3-ase python3-spglib python3-gemmi   # tests read the strained-lattice exports (extended XYZ, CIF) and check symmetry
 )
 # clang's libFuzzer and sanitizer runtimes come in a package named after clang's major version.
 clang_major=$(clang++ --version 2>/dev/null | sed -n 's/.*clang version \([0-9]*\).*/\1/p' | head -1)

@@ -18,6 +18,10 @@ Writes into the stem's directory (or DIR), each as .png and .svg, NAME being the
     NAME_strain_map      larger principal strain [%], the fracture strain contour where known, the
                          largest strain marked
     NAME_gap_map         gap to the substrate [nm] with the contact region outlined (with a substrate)
+    NAME_pseudo_field_map, NAME_potential_map, NAME_gap_shift_map
+                         the electronic estimates where the map has them (pseudo-magnetic field of
+                         valley K [T], deformation potential [eV], optical gap shift [meV];
+                         docs/electronics.md), the summary's extreme marked
     NAME_line_cut        deflection and substrate, principal strains and gap along x (1D-like cells:
                          fewer than 3 grid rows in y, or fields that do not vary along y by more than
                          0.1 % of their range)
@@ -46,6 +50,16 @@ FLAT_ALONG_Y = 1e-3  # a field is y-invariant if it varies along y by less than 
 MAX_WARNINGS = 3
 CONTACT_COLOUR = "#D55E00"
 OFF_SHEET = "0.93"
+# map column: (figure name, subject, unit, extreme of the summary marked on it)
+ELECTRONIC_MAPS = {
+    "pseudo_magnetic_field_K_T": ("pseudo_field_map", "pseudo-magnetic field B, valley K (K′: −B)", "T",
+                                  "max_pseudo_magnetic_field_K"),
+    "deformation_potential_eV": ("potential_map", "deformation potential V = g tr ε", "eV",
+                                 "max_deformation_potential"),
+    "gap_shift_meV": ("gap_shift_map", "optical gap shift (trace model)", "meV", "min_gap_shift"),
+}
+ELECTRONIC_NOTE = "First-order continuum estimates, not band structures: confirm with electronic-structure " \
+                  "calculations and measurement."
 
 
 @dataclass
@@ -324,6 +338,15 @@ def gap_map(case):
     return fig, notes(case) + ["Contact: the gap is within the adhesion range up to the peak traction."]
 
 
+def electronic_map(case, column):
+    _, subject, unit, key = ELECTRONIC_MAPS[column]
+    fig, ax = map_figure(case, subject)
+    values = case.map.fields[column]
+    shade(fig, ax, case, values, f"{subject} [{unit}]", **strain_norm(values))
+    finish_map(ax, case, mark_extreme(ax, case, key, key.replace("_", " "), unit))
+    return fig, notes(case) + [ELECTRONIC_NOTE]
+
+
 def verdict_text(summary):
     return f"the sheet {summary.verdict} (conformed fraction {npl.percent(summary.conformed_fraction)})"
 
@@ -408,6 +431,8 @@ def figures(case, _argument):
                    (f"{case.name}_strain_map", lambda: strain_map(case))]
         if case.map.has_substrate():
             chosen.append((f"{case.name}_gap_map", lambda: gap_map(case)))
+        chosen += [(f"{case.name}_{ELECTRONIC_MAPS[c][0]}", lambda c=c: electronic_map(case, c))
+                   for c in ELECTRONIC_MAPS if c in case.map.fields]
     if is_one_dimensional(case.map):
         chosen.append((f"{case.name}_line_cut", lambda: line_cut(case)))
     return chosen

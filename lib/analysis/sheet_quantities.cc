@@ -1,8 +1,11 @@
 #include <nappe/analysis/sheet_quantities.h>
 #include <nappe/base/units.h>
 #include <nappe/physics/adhesion_potential.h>
+#include <nappe/physics/electronic_fields.h>
 #include <nappe/physics/fvk_kinematics.h>
+#include <nappe/physics/strain_gradient.h>
 
+#include <algorithm>
 #include <cmath>
 
 namespace nappe
@@ -27,6 +30,36 @@ namespace nappe
     }
 
     const double nm = units::nanometer, per_nm = 1.0 / units::nanometer;
+    const double tesla_nm = units::nanometer, mev = 1e-3 * units::electronvolt;
+
+    // Electronic estimates (electronic_fields.h): first-order continuum fields, defined where the catalogue
+    // gives the material a lattice and a published coupling constant.
+    bool has_pseudo_gauge_field(const SheetModel &m)
+    {
+      const auto type = m.material.lattice.type;
+      return (type == LatticeType::honeycomb || type == LatticeType::binary_honeycomb) &&
+             m.material.electronic.hopping_decay > 0.0;
+    }
+    bool has_deformation_potential(const SheetModel &m) { return m.material.electronic.deformation_potential != 0; }
+    bool has_gap_coefficient(const SheetModel &m) { return m.material.electronic.biaxial_gap.known(); }
+
+    dealii::Tensor<1, 2> vector_potential(const P &p)
+    {
+      return pseudo_vector_potential(p.strain, PseudoGaugeCoupling::of(p.model->material));
+    }
+
+    /// B of valley K from the strain gradient of the solved fields' second derivatives (strain_gradient.h).
+    double field_of_valley_k(const P &p)
+    {
+      const auto gradient = membrane_strain_gradient(p.hess_u, p.grad_w, p.hess_w, p.model->geometric_nonlinearity);
+      return pseudo_magnetic_field(gradient, PseudoGaugeCoupling::of(p.model->material));
+    }
+
+    double potential(const P &p)
+    {
+      return deformation_potential(p.strain, p.model->material.electronic.deformation_potential);
+    }
+    double gap_shift(const P &p) { return band_gap_shift(p.strain, p.model->material.electronic.biaxial_gap); }
 
     SheetQuantity quantity(std::string name, std::string unit, double si_per_unit, std::string description,
                            std::function<double(const P &)> evaluate)
@@ -46,6 +79,20 @@ namespace nappe
       q.extreme_key     = std::move(key);
       q.histogram_label = std::move(histogram_label);
       return q;
+    }
+
+    /// A quantity defined only for models that pass @p test.
+    SheetQuantity needing(std::function<bool(const SheetModel &)> test, SheetQuantity q)
+    {
+      q.needs_model = std::move(test);
+      return q;
+    }
+
+    /// A second extreme of a field already in the table (not written as a field again).
+    SheetQuantity other_extreme(SheetQuantity q, Extreme kind, std::string key)
+    {
+      q.field = false;
+      return extreme(std::move(q), kind, std::move(key));
     }
 
     /// A quantity defined only on an adhesion substrate.
@@ -95,11 +142,45 @@ namespace nappe
         on_substrate(quantity("conformed", "1", 1,
                               "1 where the gap is within the attractive range up to the peak traction",
                               [](const P &p) { return adhesion(p).conformed(gap(p)) ? 1.0 : 0.0; })),
+        needing(has_pseudo_gauge_field,
+                quantity("pseudo_vector_potential_x", "T nm", tesla_nm,
+                         "strain pseudo-vector potential of valley K, x (valley K' has -A)",
+                         [](const P &p) { return vector_potential(p)[0]; })),
+        needing(has_pseudo_gauge_field,
+                quantity("pseudo_vector_potential_y", "T nm", tesla_nm,
+                         "strain pseudo-vector potential of valley K, y (valley K' has -A)",
+                         [](const P &p) { return vector_potential(p)[1]; })),
+        needing(has_pseudo_gauge_field,
+                extreme(quantity("pseudo_magnetic_field_K", "T", 1,
+                                 "pseudo-magnetic field of valley K (valley K' has -B; |B| is the same in both)",
+                                 field_of_valley_k),
+                        Extreme::largest_magnitude, "max_pseudo_magnetic_field_K")),
+        needing(has_deformation_potential,
+                extreme(quantity("deformation_potential", "eV", units::electronvolt,
+                                 "scalar deformation potential g tr(strain)", potential),
+                        Extreme::largest, "max_deformation_potential")),
+        needing(has_deformation_potential,
+                other_extreme(quantity("deformation_potential", "eV", units::electronvolt,
+                                       "scalar deformation potential g tr(strain)", potential),
+                              Extreme::smallest, "min_deformation_potential")),
+        needing(has_gap_coefficient,
+                extreme(quantity("gap_shift", "meV", mev,
+                                 "optical band-gap shift, trace model calibrated on the biaxial coefficient",
+                                 gap_shift),
+                        Extreme::largest, "max_gap_shift")),
+        needing(has_gap_coefficient,
+                other_extreme(quantity("gap_shift", "meV", mev,
+                                       "optical band-gap shift, trace model calibrated on the biaxial coefficient",
+                                       gap_shift),
+                              Extreme::smallest, "min_gap_shift")),
       };
     }
   } // namespace
 
-  bool SheetQuantity::applies_to(const SheetModel &model) const { return !needs_adhesion || model.adhesion(); }
+  bool SheetQuantity::applies_to(const SheetModel &model) const
+  {
+    return (!needs_adhesion || model.adhesion()) && (!needs_model || needs_model(model));
+  }
 
   std::string SheetQuantity::unit_suffix() const
   {
@@ -110,6 +191,7 @@ namespace nappe
       slug = "per_" + slug.substr(2);
     for (std::size_t k = slug.find('/'); k != std::string::npos; k = slug.find('/'))
       slug.replace(k, 1, "_per_");
+    std::replace(slug.begin(), slug.end(), ' ', '_');
     return "_" + slug;
   }
 

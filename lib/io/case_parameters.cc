@@ -141,6 +141,7 @@ namespace nappe
     TopographyFactory::declare_parameters(prm);
     declare_adhesion_parameters(prm);
     declare_limit_parameters(prm);
+    declare_electronics_parameters(prm);
 
     prm.enter_subsection("Solver");
     prm.declare_entry("Element degree", "2", Patterns::Integer(2, 4), "Degree p of the Lagrange elements [-].");

@@ -363,6 +363,10 @@ namespace nappe
     parse_substrate(prm, p, periods_per_cell);
     c.limits      = parse_limit_parameters(prm);
     c.fabrication = parse_fabrication_parameters(prm);
+    c.electronics = parse_electronics_parameters(prm);
+    p.model.material.lattice.orientation = c.electronics.zigzag_angle;
+    if (c.electronics.export_lattice)
+      check_lattice_export(p.model.material, p.domain, c.electronics.lattice_export);
     parse_solver(prm, p, c.memory_limit);
     c.output = parse_output(prm);
     return c;

@@ -7,6 +7,7 @@
 #include <nappe/io/sheet_report.h>
 #include <nappe/physics/adhesion_potential.h>
 
+#include <cmath>
 #include <iomanip>
 #include <sstream>
 
@@ -81,7 +82,23 @@ namespace nappe
       json.end_object();
     }
 
-    void write_summary(const SheetCase &c, const SheetResult &r, std::ostream &out)
+    void write_lattice_export(JsonWriter &json, const SheetCase &c, const LatticeExportReport &r)
+    {
+      json.begin_object("strained_lattice");
+      json.quantity("zigzag_angle", c.electronics.zigzag_angle * 180.0 / M_PI, "deg");
+      json.value("atoms", static_cast<long long>(r.n_atoms));
+      json.value("periodic", r.periodic);
+      if (r.periodic)
+        json.quantity("residual_strain", r.supercell.largest_residual_strain(), "1");
+      json.value("atoms_off_sheet", static_cast<long long>(r.n_off_sheet));
+      json.begin_array("files");
+      for (const auto &f : r.files)
+        json.value("", f);
+      json.end_array();
+      json.end_object();
+    }
+
+    void write_summary(const SheetCase &c, const SheetResult &r, const LatticeExportReport *lattice, std::ostream &out)
     {
       const SheetModel &model = c.problem.model;
       JsonWriter        json(out);
@@ -113,6 +130,8 @@ namespace nappe
       write_extremes(json, r.measures);
       if (r.conformation)
         write_conformation(json, c, *r.conformation);
+      if (lattice)
+        write_lattice_export(json, c, *lattice);
       json.begin_array("warnings");
       for (const auto &w : r.warnings)
         json.value("", w);
@@ -122,9 +141,10 @@ namespace nappe
     }
   } // namespace
 
-  void write_sheet_summary(const std::string &path, const SheetCase &c, const SheetResult &r)
+  void write_sheet_summary(const std::string &path, const SheetCase &c, const SheetResult &r,
+                           const LatticeExportReport *lattice)
   {
-    write_atomically(path, [&](std::ostream &out) { write_summary(c, r, out); });
+    write_atomically(path, [&](std::ostream &out) { write_summary(c, r, lattice, out); });
   }
 
   void write_substrate_tables(const std::string &stem, const ConformationMeasures &m)
@@ -189,6 +209,48 @@ namespace nappe
     }
   } // namespace
 
+  namespace
+  {
+    /// The extreme of @p key, if the table measured it for this sheet.
+    const LocatedValue *measured(const SheetMeasures &m, const std::string &key)
+    {
+      for (const auto &e : m.extremes)
+        if (e.quantity->extreme_key == key)
+          return &e.extreme;
+      return nullptr;
+    }
+
+    std::string at(const LocatedValue &v)
+    {
+      std::ostringstream s;
+      s << std::setprecision(4) << "(" << v.location[0] / nm << ", " << v.location[1] / nm << ") nm";
+      return s.str();
+    }
+
+    /// The electronic estimates the table measured (pseudo-magnetic field, deformation potential, gap shift).
+    void print_electronic_estimates(const SheetMeasures &m, std::ostream &out)
+    {
+      bool any = false;
+      if (const auto *B = measured(m, "max_pseudo_magnetic_field_K"))
+        out << "Pseudo-magnetic field:  largest |B| " << std::abs(B->value) << " T at " << at(*B)
+            << " (valley K: B = " << B->value << " T; valley K' has -B)\n",
+          any = true;
+      const auto range = [&](const char *label, const std::string &name, double unit, const char *unit_name) {
+        const auto *lo = measured(m, "min_" + name), *hi = measured(m, "max_" + name);
+        if (!lo || !hi)
+          return;
+        out << label << lo->value / unit << " to " << hi->value / unit << " " << unit_name << " (lowest at " << at(*lo)
+            << ", highest at " << at(*hi) << ")\n";
+        any = true;
+      };
+      range("Deformation potential:  ", "deformation_potential", units::electronvolt, "eV");
+      range("Optical gap shift:      ", "gap_shift", 1e-3 * units::electronvolt, "meV");
+      if (any)
+        out << "  (first-order continuum estimates, not band structures: confirm with electronic-structure "
+               "calculations and measurement; docs/electronics.md)\n";
+    }
+  } // namespace
+
   void print_sheet_summary(const SheetCase &c, const SheetResult &r, const std::vector<std::string> &files,
                            std::ostream &out)
   {
@@ -222,6 +284,7 @@ namespace nappe
       out << "WARNING: " << warning << "\n";
     out << "Largest areal strain:   " << 100 * m.at("max_areal_strain").value << " %\n";
     out << "Largest shear strain:   " << 100 * m.at("max_shear_strain").value << " %\n";
+    print_electronic_estimates(m, out);
     out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
         << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
         << ", total " << r.energy.total() / 1e-18 << "\n";

@@ -1,5 +1,6 @@
 #include <deal.II/base/exceptions.h>
 #include <deal.II/base/parameter_handler.h>
+#include <deal.II/base/utilities.h>
 
 #include <nappe/base/units.h>
 #include <nappe/physics/material_catalogue.h>
@@ -46,6 +47,14 @@ namespace nappe
       return out.empty() ? "(none)" : out;
     }
 
+    // The catalogue writes 0 for a value no source gives: print it as unknown, never as a number.
+    std::string value_or_unknown(double value)
+    {
+      std::ostringstream text;
+      text << std::setprecision(4) << value;
+      return value == 0.0 ? "unknown" : text.str();
+    }
+
     /**
      * The names of the subsections nested directly in "Materials" and in "Interfaces", found by
      * a lexical scan (ParameterHandler needs every entry declared before it parses a file).
@@ -73,6 +82,48 @@ namespace nappe
         }
     }
 
+    void declare_lattice(dealii::ParameterHandler &prm)
+    {
+      prm.enter_subsection("Lattice");
+      prm.declare_entry("Type", "none",
+                        dealii::Patterns::Selection("none|honeycomb|binary honeycomb|1H dichalcogenide"),
+                        "Crystal lattice: none, honeycomb (2 identical atoms), binary honeycomb (hBN), "
+                        "1H dichalcogenide (metal between two chalcogen planes).");
+      prm.declare_entry("Species", "", dealii::Patterns::Anything(),
+                        "Chemical symbols on sublattice A and B, e.g. 'Mo, S' (the metal first).");
+      prm.declare_entry("Lattice constant", "0", dealii::Patterns::Double(0.0),
+                        "In-plane lattice constant a = |a1|. Unit: angstrom.");
+      prm.declare_entry("Chalcogen height", "0", dealii::Patterns::Double(0.0),
+                        "1H dichalcogenide: height of each chalcogen plane above/below the metal plane. Unit: angstrom.");
+      prm.leave_subsection();
+    }
+
+    void declare_coefficient(dealii::ParameterHandler &prm, const std::string &name, const std::string &doc)
+    {
+      prm.declare_entry(name, "0", dealii::Patterns::Double(), doc);
+      prm.declare_entry(name + " kind", "", dealii::Patterns::Anything(),
+                        "What the value is: measured or computed, which quantity, which strain state.");
+      prm.declare_entry(name + " source", "", dealii::Patterns::Anything(),
+                        "Authors, journal, volume, page, year, and whether the number was checked.");
+    }
+
+    void declare_electronic(dealii::ParameterHandler &prm)
+    {
+      prm.enter_subsection("Electronic");
+      prm.declare_entry("Hopping decay beta", "0", dealii::Patterns::Double(0.0),
+                        "beta = -dln t/dln d of the nearest-neighbour hopping of a honeycomb lattice; 0 = unknown. "
+                        "Dimensionless.");
+      prm.declare_entry("Hopping decay beta source", "", dealii::Patterns::Anything(), "Source of beta.");
+      prm.declare_entry("Deformation potential", "0", dealii::Patterns::Double(),
+                        "Scalar deformation potential g in V = g tr(strain); 0 = unknown. Unit: eV.");
+      prm.declare_entry("Deformation potential source", "", dealii::Patterns::Anything(), "Source of g.");
+      declare_coefficient(prm, "Biaxial gap coefficient",
+                          "Optical gap change per % of equibiaxial strain; 0 = unknown. Unit: meV/%.");
+      declare_coefficient(prm, "Uniaxial gap coefficient",
+                          "Optical gap change per % of uniaxial strain; 0 = unknown. Unit: meV/%.");
+      prm.leave_subsection();
+    }
+
     void declare_material(dealii::ParameterHandler &prm)
     {
       prm.declare_entry("2D Young modulus", "0", dealii::Patterns::Double(0.0),
@@ -85,6 +136,8 @@ namespace nappe
                         "Nominal thickness, used only to report bulk-equivalent stresses. Unit: nm.");
       prm.declare_entry("Fracture strain", "0", dealii::Patterns::Double(0.0, 1.0),
                         "Strain at which the sheet is expected to fracture; 0 means unknown. Dimensionless.");
+      declare_lattice(prm);
+      declare_electronic(prm);
     }
 
     void declare_interface(dealii::ParameterHandler &prm)
@@ -104,6 +157,67 @@ namespace nappe
       AssertThrow(value > 0.0, dealii::ExcMessage(where + "/" + entry + ": expected a positive value in " + unit +
                                                   ", found " + prm.get(entry) + " (missing from the file?)."));
       return value;
+    }
+    MonolayerLattice parse_lattice(dealii::ParameterHandler &prm, const std::string &where)
+    {
+      prm.enter_subsection("Lattice");
+      MonolayerLattice l;
+      l.type = parse_lattice_type(prm.get("Type"));
+      if (l.defined())
+        {
+          const auto species = dealii::Utilities::split_string_list(prm.get("Species"));
+          AssertThrow(species.size() == 2 && !species[0].empty() && !species[1].empty(),
+                      dealii::ExcMessage(where + "/Lattice/Species: expected two chemical symbols 'A, B', found '" +
+                                         prm.get("Species") + "'."));
+          l.species_a        = species[0];
+          l.species_b        = species[1];
+          l.lattice_constant = positive(prm, where + "/Lattice", "Lattice constant", "angstrom") * units::angstrom;
+          if (l.type == LatticeType::trigonal_prismatic)
+            l.chalcogen_height = positive(prm, where + "/Lattice", "Chalcogen height", "angstrom") * units::angstrom;
+        }
+      prm.leave_subsection();
+      return l;
+    }
+
+    /// A value that is 0 (unknown) or comes with its source (and kind, if @p needs_kind).
+    void require_source(dealii::ParameterHandler &prm, const std::string &where, const std::string &entry,
+                        bool needs_kind)
+    {
+      if (prm.get_double(entry) == 0.0)
+        return;
+      for (const std::string &suffix : {std::string(" source"), needs_kind ? std::string(" kind") : std::string()})
+        if (!suffix.empty())
+          AssertThrow(!trim(prm.get(entry + suffix)).empty(),
+                      dealii::ExcMessage(where + "/" + entry + suffix + ": a non-zero " + entry +
+                                         " needs its" + suffix + " (published values only)."));
+    }
+
+    GapStrainCoefficient parse_coefficient(dealii::ParameterHandler &prm, const std::string &where,
+                                           const std::string &name)
+    {
+      require_source(prm, where, name, true);
+      GapStrainCoefficient c;
+      c.value  = prm.get_double(name) * units::mev_per_percent;
+      c.kind   = trim(prm.get(name + " kind"));
+      c.source = trim(prm.get(name + " source"));
+      return c;
+    }
+
+    ElectronicCoupling parse_electronic(dealii::ParameterHandler &prm, const std::string &where_material)
+    {
+      const std::string where = where_material + "/Electronic";
+      prm.enter_subsection("Electronic");
+      ElectronicCoupling e;
+      require_source(prm, where, "Hopping decay beta", false);
+      require_source(prm, where, "Deformation potential", false);
+      e.hopping_decay                = prm.get_double("Hopping decay beta");
+      e.hopping_decay_source         = trim(prm.get("Hopping decay beta source"));
+      e.deformation_potential        = prm.get_double("Deformation potential") * units::electronvolt;
+      e.deformation_potential_source = trim(prm.get("Deformation potential source"));
+      e.biaxial_gap                  = parse_coefficient(prm, where, "Biaxial gap coefficient");
+      e.uniaxial_gap                 = parse_coefficient(prm, where, "Uniaxial gap coefficient");
+      prm.leave_subsection();
+      return e;
     }
   } // namespace
 
@@ -180,6 +294,12 @@ namespace nappe
         AssertThrow(m.fracture_strain >= 0.0 && m.fracture_strain < 1.0,
                     dealii::ExcMessage(where + "/Fracture strain: expected 0 (unknown) or a strain in (0, 1), found " +
                                        prm.get("Fracture strain") + "."));
+        m.lattice    = parse_lattice(prm, where);
+        m.electronic = parse_electronic(prm, where);
+        AssertThrow(m.electronic.hopping_decay == 0.0 || m.lattice.type == LatticeType::honeycomb ||
+                      m.lattice.type == LatticeType::binary_honeycomb,
+                    dealii::ExcMessage(where + "/Electronic/Hopping decay beta: defined only for a honeycomb "
+                                               "lattice (Lattice/Type = honeycomb or binary honeycomb)."));
         prm.leave_subsection();
         materials.push_back(m);
       }
@@ -279,13 +399,20 @@ namespace nappe
       {
         out << std::left << std::setw(12) << m.name << std::right << std::setw(12) << m.youngs_modulus_2d
             << std::setw(8) << m.poisson_ratio << std::setw(10) << m.bending_rigidity / units::electronvolt
-            << std::setw(10) << m.nominal_thickness / units::nanometer << std::setw(16);
-        if (m.fracture_strain > 0.0)
-          out << m.fracture_strain;
-        else
-          out << "unknown";
-        out << '\n';
+            << std::setw(10) << m.nominal_thickness / units::nanometer << std::setw(16)
+            << value_or_unknown(m.fracture_strain) << '\n';
       }
+    out << "\nLattices and electron-strain coupling (sources in the catalogue file)\n";
+    out << std::left << std::setw(12) << "name" << std::setw(19) << "lattice" << std::right << std::setw(8) << "a [A]"
+        << std::setw(10) << "beta [-]" << std::setw(9) << "g [eV]" << std::setw(22) << "biaxial gap [meV/%]"
+        << std::setw(23) << "uniaxial gap [meV/%]" << '\n';
+    for (const auto &m : materials)
+      out << std::left << std::setw(12) << m.name << std::setw(19) << lattice_type_name(m.lattice.type) << std::right
+          << std::setw(8) << m.lattice.lattice_constant / units::angstrom << std::setw(10)
+          << value_or_unknown(m.electronic.hopping_decay) << std::setw(9)
+          << value_or_unknown(m.electronic.deformation_potential / units::electronvolt) << std::setw(22)
+          << value_or_unknown(m.electronic.biaxial_gap.value / units::mev_per_percent) << std::setw(23)
+          << value_or_unknown(m.electronic.uniaxial_gap.value / units::mev_per_percent) << '\n';
     out << "\nInterfaces\n";
     out << std::left << std::setw(12) << "sheet" << std::setw(12) << "substrate" << std::right << std::setw(16)
         << "Gamma [J/m^2]" << std::setw(18) << "Gamma [meV/A^2]" << '\n';

@@ -3,6 +3,7 @@
 #include <nappe/base/collective.h>
 #include <nappe/io/field_output.h>
 #include <nappe/io/sheet_report.h>
+#include <nappe/io/strained_lattice.h>
 #include <nappe/runs/case_run.h>
 
 namespace nappe
@@ -25,6 +26,13 @@ namespace nappe
           write_fields(*solution.system, ghosted, 1.0, c.output.directory, c.output.base_name);
         run.files.push_back("Fields (ParaView): " + fields);
       }
+    std::optional<LatticeExportReport> lattice;
+    if (c.electronics.export_lattice)
+      {
+        lattice = export_strained_lattice(*solution.system, ghosted, 1.0, c.electronics.lattice_export,
+                                          stem + "_lattice");
+        run.files.push_back(describe_lattice_export(*lattice));
+      }
     const auto [nx, ny]       = map_grid_size(*solution.system);
     const GridSamples map     = sample_on_grid(*solution.system, ghosted, 1.0, nx, ny);
     run_collectively(comm, [&] {
@@ -33,7 +41,7 @@ namespace nappe
       if (run.result.conformation)
         write_substrate_tables(stem, *run.result.conformation);
       write_field_map(stem + "_map.csv", map);
-      write_sheet_summary(stem + ".json", c, run.result);
+      write_sheet_summary(stem + ".json", c, run.result, lattice ? &*lattice : nullptr);
     });
     run.files.insert(run.files.begin(), "Summary: " + stem + ".json, maps: " + stem + "_map.csv");
     return run;

@@ -10,6 +10,7 @@
 #include <nappe/runs/sweep_lock.h>
 #include <nappe/runs/sweep_run.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <iomanip>
 #include <sstream>
@@ -27,7 +28,21 @@ namespace nappe
       return s.str();
     }
 
-    void compute_single(const SheetCase &c, PointRecord &r)
+    /// The values of the sweep's @p columns (energy last, not included) from a point's own named values.
+    std::vector<double> sweep_values(const std::vector<std::string> &columns, const std::vector<std::string> &names,
+                                     const std::vector<double> &values)
+    {
+      std::vector<double> picked;
+      for (std::size_t k = 0; k + 1 < columns.size(); ++k)
+        {
+          const auto it = std::find(names.begin(), names.end(), columns[k]);
+          AssertThrow(it != names.end(), dealii::ExcMessage("sweep column '" + columns[k] + "' was not measured"));
+          picked.push_back(values[it - names.begin()]);
+        }
+      return picked;
+    }
+
+    void compute_single(const SheetCase &c, const std::vector<std::string> &columns, PointRecord &r)
     {
       const CaseRun run = run_sheet_case(c, MPI_COMM_SELF, nullptr, false);
       r.ok              = run.result.converged;
@@ -37,13 +52,15 @@ namespace nappe
           return;
         }
       const auto &conformation = run.result.conformation;
-      r.values = summary_values(run.result.measures, conformation ? &*conformation : nullptr);
+      r.values = sweep_values(columns, summary_columns(c.problem.model),
+                              summary_values(run.result.measures, conformation ? &*conformation : nullptr));
       r.values.push_back(run.result.energy.total() / c.problem.domain.area());
       if (conformation)
         r.regime = regime_name(classify_regime(*conformation, c.limits.target_fraction));
     }
 
-    void compute_with_thresholds(const SheetCase &c, const std::string &path_file, PointRecord &r)
+    void compute_with_thresholds(const SheetCase &c, const std::vector<std::string> &columns,
+                                 const std::string &path_file, PointRecord &r)
     {
       const double         gamma    = r.work_of_adhesion;
       const AdhesionLimits limits   = find_adhesion_limits(c.problem, with_stops(c.limits, {gamma}), MPI_COMM_SELF);
@@ -68,7 +85,7 @@ namespace nappe
       for (const auto &n : notes)
         r.message += (r.message.empty() ? "" : "; ") + n;
       r.regime = regime_name(classify_regime(path, *p, c.limits.target_fraction));
-      r.values = p->values;
+      r.values = sweep_values(columns, path.value_names, p->values);
       r.values.push_back(p->energy_per_area.total());
     }
 
@@ -122,7 +139,24 @@ namespace nappe
 
   std::vector<std::string> sweep_value_columns(const SweepSpec &spec)
   {
+    // Which quantities a point measures depends on categorical values (e.g. the electronic estimates on the
+    // material), so the table keeps the columns every combination of categorical values has.
     auto columns = summary_columns(point_case(spec, 1).problem.model);
+    for (unsigned int point = 2; point <= spec.n_points(); ++point)
+      {
+        const auto index            = spec.indices(point);
+        bool       numeric_at_first = true;
+        for (std::size_t a = 0; a < spec.axes.size(); ++a)
+          numeric_at_first = numeric_at_first && (spec.axes[a].categorical || index[a] == 0);
+        if (!numeric_at_first)
+          continue;
+        const auto other = summary_columns(point_case(spec, point).problem.model);
+        columns.erase(std::remove_if(columns.begin(), columns.end(),
+                                     [&](const std::string &name) {
+                                       return std::find(other.begin(), other.end(), name) == other.end();
+                                     }),
+                      columns.end());
+      }
     columns.push_back("energy_J_per_m2");
     return columns;
   }
@@ -142,10 +176,10 @@ namespace nappe
           {
             std::string path_file = point_record_path(spec, point);
             path_file.replace(path_file.size() - 4, 4, "_path.csv");
-            compute_with_thresholds(c, path_file, r);
+            compute_with_thresholds(c, sweep_value_columns(spec), path_file, r);
           }
         else
-          compute_single(c, r);
+          compute_single(c, sweep_value_columns(spec), r);
       }
     catch (const std::exception &e)
       {

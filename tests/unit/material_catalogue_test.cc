@@ -231,8 +231,8 @@ TEST(CatalogueSources, EveryShippedValueCarriesASourceMarkedVerifiedOrFromMemory
 {
   const auto sources = nappe::read_catalogue_sources(MaterialCatalogue::default_path());
   const MaterialCatalogue catalogue;
-  // Five numbers per material (Y, nu, D, t, fracture strain) and one per interface.
-  const std::size_t expected = 5 * catalogue.material_names().size() + catalogue.interfaces().size();
+  // Five numbers per material (Y, nu, D, t, fracture strain), a lattice constant each, and one per interface.
+  const std::size_t expected = 6 * catalogue.material_names().size() + catalogue.interfaces().size();
   EXPECT_GE(sources.size(), expected);
   for (const auto &s : sources)
     {
@@ -258,4 +258,25 @@ TEST(CatalogueSources, ReadsTheCommentBesideEachValueOfAMaterial)
   EXPECT_EQ(sources[0].value, "100");
   EXPECT_EQ(sources[0].source, "Author, J. Phys. 1, 2 (2000) (verified)");
   EXPECT_EQ(sources[1].source, "");
+}
+
+TEST(CatalogueSources, NamesNestedEntriesByPathAndAttachesSeparateSourceAndKindEntries)
+{
+  const std::string path = "catalogue_sources_nested_test.prm";
+  std::ofstream(path) << "subsection Materials\n  subsection foil\n"
+                         "    subsection Lattice\n      set Type = honeycomb\n"
+                         "      set Lattice constant = 2.5 # Author, J. Phys. 1, 2 (2000) (from memory)\n    end\n"
+                         "    subsection Electronic\n      set Biaxial gap coefficient = -90\n"
+                         "      set Biaxial gap coefficient kind = measured optical gap\n"
+                         "      set Biaxial gap coefficient source = Other, Nano 3, 4 (2001) (verified)\n"
+                         "    end\n  end\nend\n";
+  const auto sources = nappe::read_catalogue_sources(path);
+  std::remove(path.c_str());
+  ASSERT_EQ(sources.size(), 2u); // Type is a name, kind and source belong to the coefficient
+  EXPECT_EQ(sources[0].subject, "foil");
+  EXPECT_EQ(sources[0].entry, "Lattice/Lattice constant");
+  EXPECT_EQ(sources[0].source, "Author, J. Phys. 1, 2 (2000) (from memory)");
+  EXPECT_EQ(sources[1].entry, "Electronic/Biaxial gap coefficient");
+  EXPECT_EQ(sources[1].value, "-90");
+  EXPECT_EQ(sources[1].source, "Other, Nano 3, 4 (2001) (verified) [measured optical gap]");
 }

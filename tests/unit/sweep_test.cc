@@ -17,6 +17,7 @@
 
 #include <unistd.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -251,4 +252,28 @@ TEST(SweepRun, SweepOverThePeriodMatchesHandWrittenCases)
       for (std::size_t k = 0; k < values.size(); ++k)
         EXPECT_DOUBLE_EQ(swept.values[k], values[k]) << "wavelength " << wavelength << ", column " << k;
     }
+}
+
+TEST(SweepFile, ColumnsKeepTheElectronicEstimatesThatEveryMaterialOfTheSweepHas)
+{
+  // MoS2 and WS2 both have a published biaxial gap coefficient (share/materials.prm): the gap-shift extremes are
+  // columns. graphene has a pseudo-magnetic field and no gap: mixed with MoS2 neither column is kept, the strain
+  // columns are.
+  const auto has = [](const std::vector<std::string> &columns, const std::string &name) {
+    return std::find(columns.begin(), columns.end(), name) != columns.end();
+  };
+  {
+    const Scratch s("MoS2, WS2", "", "Sheet/Material");
+    const auto    columns = sweep_value_columns(read_sweep(s.sweep()));
+    EXPECT_TRUE(has(columns, "max_gap_shift_meV"));
+    EXPECT_TRUE(has(columns, "min_gap_shift_meV"));
+  }
+  {
+    const Scratch s("graphene, MoS2", "", "Sheet/Material");
+    const auto    columns = sweep_value_columns(read_sweep(s.sweep()));
+    EXPECT_FALSE(has(columns, "max_gap_shift_meV"));
+    EXPECT_FALSE(has(columns, "max_pseudo_magnetic_field_K_T"));
+    EXPECT_TRUE(has(columns, "max_principal_strain"));
+    EXPECT_EQ(columns.back(), "energy_J_per_m2");
+  }
 }

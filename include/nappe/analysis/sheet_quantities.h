@@ -26,7 +26,7 @@ namespace nappe
   struct SheetQuantity
   {
     std::string name;        ///< e.g. "principal_strain_1"; the field name adds the unit (unit_suffix())
-    std::string unit;        ///< unit of reported values: "1", "nm", "1/nm", "N/m", "MPa", …
+    std::string unit;        ///< unit of reported values: "1", "nm", "1/nm", "N/m", "MPa", "T", "T nm", "eV", …
     double      si_per_unit; ///< the SI value of one unit (reported = SI value / si_per_unit)
     std::string description; ///< one line, for documentation and reports
     std::function<double(const PointState &)> evaluate; ///< the value at a point [SI]
@@ -34,13 +34,16 @@ namespace nappe
     std::string extreme_key;     ///< key of the extreme in reports, e.g. "max_principal_strain"
     std::string histogram_label; ///< non-empty: an area-weighted histogram of it is reported
     bool        needs_adhesion = false; ///< defined only on a substrate with an adhesion law
+    /// Non-empty: the quantity is defined only for models that pass it (e.g. electronic quantities need the
+    /// material's lattice and a published coupling constant).
+    std::function<bool(const SheetModel &)> needs_model;
     bool        field          = true;  ///< written to the VTU fields
 
     /// Whether the quantity is defined for @p model (e.g. the gap needs a substrate).
     bool applies_to(const SheetModel &model) const;
     /// The value at @p point in the reported unit.
     double reported(const PointState &point) const { return evaluate(point) / si_per_unit; }
-    /// "_nm", "_per_nm", "_N_per_m", … ("" for dimensionless): appended to names in fields and CSV columns.
+    /// "_nm", "_per_nm", "_N_per_m", "_T_nm", … ("" for dimensionless): appended to names in fields and CSV columns.
     std::string unit_suffix() const;
   };
 

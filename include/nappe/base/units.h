@@ -17,6 +17,9 @@ namespace nappe::units
   constexpr double joule        = 1.0;
   constexpr double electronvolt = 1.602176634e-19;
 
+  // Energy per strain [J per unit strain]: a gap coefficient of 1 meV per % of strain is 0.1 eV per unit strain.
+  constexpr double mev_per_percent = 1.0e-3 * electronvolt / 0.01;
+
   // Energy per area [J/m^2]. 1 meV/Å² = 1e-3 eV / 1e-20 m² = 16.02176634e-3 J/m².
   constexpr double joule_per_m2     = 1.0;
   constexpr double mev_per_angstrom2 = 1.0e-3 * electronvolt / (angstrom * angstrom);

@@ -3,6 +3,7 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/analysis/fabrication_check.h>
+#include <nappe/io/electronics_parameters.h>
 #include <nappe/solvers/adhesion_path.h>
 #include <nappe/solvers/sheet_problem.h>
 
@@ -35,13 +36,16 @@ namespace nappe
     AdhesionPathSettings limits;
     /// Verdict table over an interface's Γ range and aspect-ratio scan (subsection "Fabrication check").
     FabricationCheckSettings fabrication;
+    /// Lattice orientation and strained-lattice export (subsection "Electronics"); the orientation is also
+    /// stored in the problem's material (SheetMaterial::lattice), where the electronic quantities read it.
+    ElectronicsSettings electronics;
     /// The most memory a run may plan to use (Solver/Memory limit); 0: what the machine has available [bytes].
     double memory_limit = 0.0;
   };
 
   /**
    * Declares the case file's subsections (Case, Sheet, Domain, Edges, Loads, Substrate,
-   * Topography, Adhesion, Adhesion limits, Fabrication check, Solver, Output), each
+   * Topography, Adhesion, Adhesion limits, Fabrication check, Electronics, Solver, Output), each
    * entry with a pattern and a documentation string that states its unit. Inputs use the units of
    * the trade (nm, N/m, eV, kPa, nN); parse_sheet_case() converts them to SI.
    */

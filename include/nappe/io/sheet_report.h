@@ -3,6 +3,7 @@
 #include <nappe/analysis/grid_sampling.h>
 #include <nappe/analysis/sheet_result.h>
 #include <nappe/io/sheet_case.h>
+#include <nappe/io/strained_lattice.h>
 
 #include <ostream>
 #include <string>
@@ -10,8 +11,10 @@
 namespace nappe
 {
   /// The JSON summary of a solved case with units: sheet, discretisation, energies, the extremes of
-  /// the quantity table with their locations, the conformation, warnings and solver statistics.
-  void write_sheet_summary(const std::string &path, const SheetCase &sheet_case, const SheetResult &result);
+  /// the quantity table with their locations, the conformation, warnings and solver statistics; with
+  /// @p lattice, what the strained-lattice export wrote (atoms, supercell and its residual strain, files).
+  void write_sheet_summary(const std::string &path, const SheetCase &sheet_case, const SheetResult &result,
+                           const LatticeExportReport *lattice = nullptr);
 
   /**
    * The CSV tables of a solved case on a substrate, next to @p stem: <stem>_strain_histogram.csv (one

@@ -17,9 +17,11 @@ namespace nappe
 
   /**
    * The sources of the catalogue at @p path: every "set Entry = value # source" line inside a material or
-   * interface subsection, in file order. The deal.II parameter reader drops comments, so they are read here
-   * from the text; entries without a comment are listed with an empty source. Throws naming the file if it
-   * cannot be read.
+   * interface subsection, in file order. Entries of a nested subsection of a material are named with its path
+   * ("Lattice/Lattice constant"); their "<entry> source" and "<entry> kind" entries become the source of the
+   * value they describe (kind in brackets). Names rather than values (Sheet, Substrate, Type, Species) are not
+   * listed. The deal.II parameter reader drops comments, so they are read here from the text; entries without
+   * a source are listed with an empty one. Throws naming the file if it cannot be read.
    */
   std::vector<CatalogueSource> read_catalogue_sources(const std::string &path);
 

@@ -14,7 +14,10 @@ namespace nappe
    *
    * File layout: subsection "Materials" holds one subsection per material (its name is the
    * material name) with the entries "2D Young modulus" [N/m], "Poisson ratio" [-],
-   * "Bending rigidity" [eV], "Nominal thickness" [nm] and "Fracture strain" [-, 0 = unknown];
+   * "Bending rigidity" [eV], "Nominal thickness" [nm] and "Fracture strain" [-, 0 = unknown], and optionally
+   * the subsections "Lattice" (Type, Species, "Lattice constant" [Å], "Chalcogen height" [Å]) and "Electronic"
+   * ("Hopping decay beta" [-], "Deformation potential" [eV], "Biaxial/Uniaxial gap coefficient" [meV/%], each
+   * non-zero value with its "… source" and, for gap coefficients, "… kind");
    * subsection "Interfaces" holds one subsection per pair with "Sheet", "Substrate" and
    * "Work of adhesion" [J/m²]. Values are converted to SI on loading and checked (Y > 0,
    * −1 < ν < 1, D > 0, t > 0, 0 ≤ fracture strain < 1, Γ > 0, every interface sheet listed).

@@ -1,5 +1,7 @@
 #pragma once
 
+#include <nappe/physics/monolayer_crystal.h>
+
 #include <string>
 
 namespace nappe
@@ -9,7 +11,8 @@ namespace nappe
    *
    * A monolayer is described by its 2D constants directly (Y in N/m, D in J), not by a bulk
    * modulus and a thickness: for atomically thin crystals D is not E·t³/12(1−ν²) with any
-   * sensible t. For a continuum plate of thickness t use from_plate().
+   * sensible t. For a continuum plate of thickness t use from_plate(). A monolayer from the catalogue
+   * also carries its lattice and electron–strain coupling constants (monolayer_crystal.h).
    */
   struct SheetMaterial
   {
@@ -24,6 +27,10 @@ namespace nappe
     double nominal_thickness = 0.0;
     /// Strain at which the sheet is expected to fracture; 0 means unknown [-].
     double fracture_strain = 0.0;
+    /// Crystal lattice and its orientation θ on the sheet (type none for a continuum plate).
+    MonolayerLattice lattice;
+    /// Electron–strain coupling constants with their sources (0 = unknown).
+    ElectronicCoupling electronic;
 
     /// Membrane stiffness Y/(1−ν²) [N/m].
     double membrane_stiffness() const

@@ -33,7 +33,8 @@ namespace nappe
   /// The record of one point, computed on MPI_COMM_SELF (a failure is a record, not an exception).
   PointRecord compute_sweep_point(const SweepSpec &spec, unsigned int point);
 
-  /// The value columns of the sweep's table: the state summary columns of point 1's model and the
-  /// energy per area.
+  /// The value columns of the sweep's table: the state summary columns (state_summary.h) that the
+  /// models of all points have (the electronic estimates depend on the material, so a categorical
+  /// material axis keeps only those every material has), and the energy per area.
   std::vector<std::string> sweep_value_columns(const SweepSpec &spec);
 } // namespace nappe
