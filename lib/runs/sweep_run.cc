@@ -10,6 +10,7 @@
 #include <nappe/runs/sweep_lock.h>
 #include <nappe/runs/sweep_run.h>
 
+#include <cmath>
 #include <filesystem>
 #include <iomanip>
 #include <sstream>
@@ -152,8 +153,17 @@ namespace nappe
         r.ok      = false;
         r.message = user_message(e);
       }
+    // The record reader refuses a non-finite value (it would be recomputed on every resume): such a point
+    // is recorded as failed, and the table never shows NaN.
+    const auto columns = sweep_value_columns(spec);
+    for (std::size_t i = 0; r.ok && i < r.values.size(); ++i)
+      if (!std::isfinite(r.values[i]))
+        {
+          r.ok      = false;
+          r.message = "the value of " + columns[i] + " is not a finite number (a defect of nappe: please report it)";
+        }
     if (!r.ok)
-      r.values.assign(sweep_value_columns(spec).size(), 0.0);
+      r.values.assign(columns.size(), 0.0);
     return r;
   }
 
