@@ -4,7 +4,7 @@
 #
 #   scripts/fuzz.sh [--runs N | --time SECONDS] [--ci] [target ...]
 #
-#   targets: height_map stl gmsh_mesh formula case_file sweep_file (default: all)
+#   targets: height_map stl gmsh_mesh formula case_file sweep_file sweep_record (default: all)
 #   --runs N     executions per target (default 1000000)
 #   --time S     run each target for S seconds instead
 #   --ci         the short run of ctest (fuzz.readers): --time 10 unless given, and exit 77 (skipped)
@@ -17,7 +17,7 @@
 # $NAPPE_FUZZ_DIR/findings/<target>-crash-… (replay: build/fuzz/fuzz_<target> <file>).
 set -euo pipefail
 here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
-all_targets=(height_map stl gmsh_mesh formula case_file sweep_file)
+all_targets=(height_map stl gmsh_mesh formula case_file sweep_file sweep_record)
 runs=1000000
 seconds=""
 ci=false

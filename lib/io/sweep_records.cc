@@ -5,6 +5,9 @@
 #include <nappe/io/json_writer.h>
 #include <nappe/io/sweep_records.h>
 
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <iomanip>
@@ -25,25 +28,86 @@ namespace nappe
       return s.str();
     }
 
-    /// A CSV text field: quoted, with quotes and line breaks replaced.
+    bool is_control(const char ch) { return static_cast<unsigned char>(ch) < 0x20 || ch == 0x7f; }
+
+    /// A CSV text field: quoted, with quotes and line breaks replaced, other control characters blanked.
     std::string quoted(std::string text)
     {
       for (auto &ch : text)
         if (ch == '"' || ch == '\n' || ch == '\r')
           ch = '\'';
+        else if (is_control(ch))
+          ch = ' ';
       return "\"" + text + "\"";
     }
 
-    std::size_t field_count(const std::string &row)
+    /// The fields of a table row, split at the commas outside quotes; quoted fields keep their quotes.
+    std::vector<std::string> fields_of(const std::string &row)
     {
-      std::size_t n = 1;
-      bool        in_quotes = false;
+      std::vector<std::string> fields(1);
+      bool                     in_quotes = false;
       for (const char ch : row)
-        if (ch == '"')
-          in_quotes = !in_quotes;
-        else if (ch == ',' && !in_quotes)
-          ++n;
-      return n;
+        {
+          if (ch == '"')
+            in_quotes = !in_quotes;
+          if (ch == ',' && !in_quotes)
+            fields.emplace_back();
+          else
+            fields.back() += ch;
+        }
+      return fields;
+    }
+
+    /// A number as number() writes it: only digits, sign, point and exponent (no "nan", "inf" or
+    /// hexadecimal), and finite.
+    bool is_number(const std::string &field)
+    {
+      if (field.empty() || field.find_first_not_of("0123456789+-.eE") != std::string::npos)
+        return false;
+      char        *end   = nullptr;
+      const double value = std::strtod(field.c_str(), &end);
+      return *end == '\0' && std::isfinite(value);
+    }
+
+    /**
+     * What is wrong with the stored row of @p point, or "" if it is a row sweep_table_row() could have
+     * written for it: a damaged or hand-edited record is computed again instead of going into sweep.csv.
+     * The row has as many fields as the header (checked before).
+     */
+    std::string row_defect(const SweepSpec &spec, const std::size_t n_values, const unsigned int point, const bool ok,
+                           const std::string &row)
+    {
+      if (std::any_of(row.begin(), row.end(), is_control))
+        return "a control character";
+      const auto  f = fields_of(row);
+      std::size_t i = 0;
+      if (f[i++] != std::to_string(point))
+        return "another point's number";
+      const auto indices = spec.indices(point);
+      for (std::size_t a = 0; a < spec.axes.size(); ++a)
+        {
+          const std::string &value = spec.axes[a].values[indices[a]];
+          if (f[i++] != (spec.axes[a].categorical ? quoted(value) : value))
+            return "another point's axis values";
+        }
+      if (f[i++] != (ok ? "ok" : "failed"))
+        return "a status other than the record's";
+      const std::string &regime = f[i++];
+      if (regime.find('"') != std::string::npos || (!ok && !regime.empty()))
+        return "an unexpected regime";
+      for (const std::size_t end = i + 2; i < end; ++i) // work of adhesion, fracture strain: > 0 or empty
+        if (!f[i].empty() && !(is_number(f[i]) && std::strtod(f[i].c_str(), nullptr) > 0))
+          return "a work of adhesion or fracture strain that is not a positive number";
+      for (const std::size_t end = i + n_values; i < end; ++i)
+        if (ok ? !is_number(f[i]) : !f[i].empty())
+          return ok ? "a value that is not a finite number" : "values of a failed point";
+      for (const std::size_t end = i + (spec.thresholds ? 3 : 0); i < end; ++i)
+        if (!f[i].empty() && !is_number(f[i]))
+          return "a threshold that is not a finite number";
+      const std::string &message = f[i];
+      if (message.size() < 2 || message.front() != '"' || message.find('"', 1) != message.size() - 1)
+        return "a message that is not one quoted field";
+      return "";
     }
   } // namespace
 
@@ -109,18 +173,27 @@ namespace nappe
     for (auto &l : lines)
       std::getline(in, l);
     const std::string header = "header " + sweep_table_header(spec, value_columns);
-    if (lines[0] != record_magic || lines[1].rfind("fingerprint ", 0) != 0 || lines[2].rfind("status ", 0) != 0 ||
-        lines[4].rfind("row ", 0) != 0 || lines[5] != "end")
+    if (lines[0] != record_magic || lines[1].rfind("fingerprint ", 0) != 0 ||
+        (lines[2] != "status ok" && lines[2] != "status failed") || lines[4].rfind("row ", 0) != 0 ||
+        lines[5] != "end")
       {
         why = "its record is truncated or malformed";
         return std::nullopt;
       }
-    if (lines[3] != header || field_count(lines[4].substr(4)) != field_count(header.substr(7)))
+    const std::string row = lines[4].substr(4);
+    if (lines[3] != header || fields_of(row).size() != fields_of(header.substr(7)).size())
       {
         why = "its record belongs to a table with other columns";
         return std::nullopt;
       }
-    return StoredRecord{lines[1].substr(12), lines[2] == "status ok", lines[4].substr(4)};
+    const bool        ok     = lines[2] == "status ok";
+    const std::string defect = row_defect(spec, value_columns.size(), point, ok, row);
+    if (!defect.empty())
+      {
+        why = "its record is damaged (its row has " + defect + ")";
+        return std::nullopt;
+      }
+    return StoredRecord{lines[1].substr(12), ok, row};
   }
 
   void write_sweep_table(const SweepSpec &spec, const std::vector<std::string> &value_columns,

@@ -11,6 +11,7 @@
 #include <nappe/runs/sweep_run.h>
 
 #include <algorithm>
+#include <cmath>
 #include <filesystem>
 #include <iomanip>
 #include <sstream>
@@ -164,8 +165,9 @@ namespace nappe
   PointRecord compute_sweep_point(const SweepSpec &spec, unsigned int point)
   {
     PointRecord r;
-    r.point       = point;
-    r.fingerprint = point_fingerprint(spec, point);
+    r.point            = point;
+    r.fingerprint      = point_fingerprint(spec, point);
+    const auto columns = sweep_value_columns(spec);
     try
       {
         const SheetCase c = point_case(spec, point);
@@ -176,18 +178,26 @@ namespace nappe
           {
             std::string path_file = point_record_path(spec, point);
             path_file.replace(path_file.size() - 4, 4, "_path.csv");
-            compute_with_thresholds(c, sweep_value_columns(spec), path_file, r);
+            compute_with_thresholds(c, columns, path_file, r);
           }
         else
-          compute_single(c, sweep_value_columns(spec), r);
+          compute_single(c, columns, r);
       }
     catch (const std::exception &e)
       {
         r.ok      = false;
         r.message = user_message(e);
       }
+    // The record reader refuses a non-finite value (it would be recomputed on every resume): such a point
+    // is recorded as failed, and the table never shows NaN.
+    for (std::size_t i = 0; r.ok && i < r.values.size(); ++i)
+      if (!std::isfinite(r.values[i]))
+        {
+          r.ok      = false;
+          r.message = "the value of " + columns[i] + " is not a finite number (a defect of nappe: please report it)";
+        }
     if (!r.ok)
-      r.values.assign(sweep_value_columns(spec).size(), 0.0);
+      r.values.assign(columns.size(), 0.0);
     return r;
   }
 

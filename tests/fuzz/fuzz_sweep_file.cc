@@ -1,7 +1,6 @@
 // Fuzz target: sweep files of nappe-sweep (read_sweep), beside a small valid base case (case.prm). The
 // reader checks that every point of the sweep is a valid case, so this also reaches the case reader.
-// When sweep records get their own reader, it becomes a target of the same shape: write the bytes with
-// fuzz::scratch_file, call the reader inside fuzz::run_reader, and add a seed corpus directory.
+// The records a sweep writes per point have their own target (fuzz_sweep_record.cc).
 #include <nappe/io/sweep_file.h>
 
 #include "fuzz_common.h"

@@ -102,6 +102,23 @@ end
     std::string sweep() const { return (dir / "sweep.prm").string(); }
   };
 
+  /// Writes @p text as the record of @p point and returns why the reader refuses it ("" if it keeps it).
+  std::string refusal(const SweepSpec &spec, const std::vector<std::string> &columns, const unsigned int point,
+                      const std::string &text)
+  {
+    std::ofstream(point_record_path(spec, point), std::ios::trunc) << text;
+    std::string why;
+    return read_point_record(spec, columns, point, why) ? "" : why;
+  }
+
+  /// @p text with the first @p from replaced by @p to.
+  std::string replaced(std::string text, const std::string &from, const std::string &to)
+  {
+    const auto at = text.find(from);
+    EXPECT_NE(at, std::string::npos) << from;
+    return at == std::string::npos ? text : text.replace(at, from.size(), to);
+  }
+
   std::string message_of(const std::function<void()> &f)
   {
     try
@@ -177,6 +194,43 @@ TEST(SweepRun, ResumesOnlyRecordsComputedFromTheSameInputs)
   EXPECT_EQ(fourth.computed, 1u);
   EXPECT_TRUE(fs::exists(fs::path(changed.output_directory) / "sweep.csv"));
   EXPECT_FALSE(fs::exists(fs::path(changed.output_directory) / "sweep.lock"));
+}
+
+// A resumed sweep keeps a point whose record it reads back and copies the record's row into sweep.csv,
+// so a record whose row the writer could not have written for that point (damaged, or edited by hand
+// while its fingerprint still matches) must be refused and the point computed again.
+TEST(SweepRecords, KeepOnlyTheRowWrittenForTheirPoint)
+{
+  const Scratch   s("10, 20");
+  const SweepSpec spec    = read_sweep(s.sweep());
+  const auto      columns = sweep_value_columns(spec);
+  PointRecord     r;
+  r.point       = 1;
+  r.fingerprint = "0123456789abcdef";
+  r.ok          = true;
+  r.values.assign(columns.size(), 0.25);
+  r.message = "a note\twith a tab";
+  fs::create_directories(fs::path(point_record_path(spec, 1)).parent_path());
+  write_point_record(spec, columns, r);
+  std::string why;
+  const auto  stored = read_point_record(spec, columns, 1, why);
+  ASSERT_TRUE(stored) << why;
+  EXPECT_EQ(stored->fingerprint, r.fingerprint);
+  EXPECT_EQ(stored->row.find('\t'), std::string::npos) << "control characters are blanked in the table";
+
+  std::ostringstream written;
+  written << std::ifstream(point_record_path(spec, 1)).rdbuf();
+  const std::string text = written.str();
+  EXPECT_EQ(refusal(spec, columns, 1, text), "");
+  EXPECT_NE(refusal(spec, columns, 1, replaced(text, ",0.25,", ",nan,")).find("not a finite number"),
+            std::string::npos);
+  EXPECT_NE(refusal(spec, columns, 1, replaced(text, "status ok", "status failed")).find("status"),
+            std::string::npos);
+  EXPECT_NE(refusal(spec, columns, 1, replaced(text, "status ok", "status okay")).find("malformed"),
+            std::string::npos);
+  EXPECT_NE(refusal(spec, columns, 1, replaced(text, "row 1,10,", "row 1,20,")).find("axis values"),
+            std::string::npos);
+  EXPECT_NE(refusal(spec, columns, 2, text).find("another point's number"), std::string::npos);
 }
 
 TEST(SweepRun, AFolderLockedByALiveProcessIsRefused)

@@ -45,8 +45,11 @@ namespace nappe
   };
 
   /**
-   * Reads a point's record; nothing if the file is missing, truncated or malformed, or was written
-   * for another table header (a sweep file whose axes or columns changed). @p why says which.
+   * Reads a point's record; nothing if the file is missing, truncated or malformed, was written for
+   * another table header (a sweep file whose axes or columns changed), or holds a row that
+   * sweep_table_row() could not have written for @p point (another point's number or axis values, a
+   * status other than the record's, a number that is not finite, a control character: a damaged or
+   * hand-edited record). @p why says which, in one line.
    */
   std::optional<StoredRecord> read_point_record(const SweepSpec &spec, const std::vector<std::string> &value_columns,
                                                 unsigned int point, std::string &why);
