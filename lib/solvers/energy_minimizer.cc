@@ -4,6 +4,8 @@
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/trust_region_step.h>
 
+#include "matrix_diagonal.h"
+
 #include <cmath>
 #include <iomanip>
 #include <sstream>
@@ -91,20 +93,20 @@ namespace nappe
   // S = diag|H|, floored at 1e-12 of its largest entry so that the scaled norm stays a norm.
   void EnergyMinimizer::set_scaling(const SparseMatrix &H)
   {
-    double largest = 0.0;
+    internal::extract_diagonal(H, diagonal_);
+    const double largest = diagonal_.linfty_norm();
     for (const auto i : diagonal_.locally_owned_elements())
-      largest = std::max(largest, std::abs(H.diag_element(i)));
-    largest = Utilities::MPI::max(largest, system_.communicator());
-    for (const auto i : diagonal_.locally_owned_elements())
-      diagonal_(i) = std::max(std::abs(H.diag_element(i)), 1e-12 * largest);
+      diagonal_(i) = std::max(std::abs(diagonal_(i)), 1e-12 * largest);
     diagonal_.compress(VectorOperation::insert);
   }
 
-  MinimizerReport EnergyMinimizer::minimize(Vector &state, const LoadLevel &level, double force_scale)
+  MinimizerReport EnergyMinimizer::minimize(Vector &state, const LoadLevel &level, double force_scale,
+                                            const IterateCheck &keep_going)
   {
     hessian_current_ = false;
-    return settings_.method == MinimizerMethod::trust_region ? minimize_trust_region(state, level, force_scale) :
-                                                               minimize_line_search(state, level, force_scale);
+    return settings_.method == MinimizerMethod::trust_region ?
+             minimize_trust_region(state, level, force_scale, keep_going) :
+             minimize_line_search(state, level, force_scale, keep_going);
   }
 
   void EnergyMinimizer::solve_with_hessian(const Vector &rhs, Vector &solution) const
@@ -124,7 +126,8 @@ namespace nappe
     return e;
   }
 
-  MinimizerReport EnergyMinimizer::minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale)
+  MinimizerReport EnergyMinimizer::minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale,
+                                                         const IterateCheck &keep_going)
   {
     MinimizerReport        report;
     Vector                 ghosted = system_.make_ghosted_vector();
@@ -235,6 +238,13 @@ namespace nappe
           << (rec.rejected_steps ? ", rejected " + std::to_string(rec.rejected_steps) : std::string())
           << (negative ? ", negative pivots " + std::to_string(negative) : std::string()) << "\n";
         say(s.str());
+        if (keep_going && !keep_going(state, rec))
+          {
+            report.stopped        = true;
+            report.message        = "stopped by the caller after " + std::to_string(it + 1) + " iterations";
+            report.factorizations = subproblem.factorizations();
+            return report;
+          }
       }
     std::ostringstream s;
     s << "no convergence in " << settings_.max_iterations << " Newton iterations; last residual "

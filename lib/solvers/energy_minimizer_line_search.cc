@@ -4,6 +4,8 @@
 
 #include <nappe/solvers/energy_minimizer.h>
 
+#include "matrix_diagonal.h"
+
 #include <cmath>
 #include <iomanip>
 #include <sstream>
@@ -25,15 +27,14 @@ namespace nappe
     shift                       = 0.0;
     if (negative == 0)
       return 0;
+    internal::extract_diagonal(H, diagonal_);
     for (const auto i : diagonal_.locally_owned_elements())
-      diagonal_(i) = std::abs(H.diag_element(i));
+      diagonal_(i) = std::abs(diagonal_(i));
     diagonal_.compress(VectorOperation::insert);
     double added = 0.0;
     for (double mu = std::max(1e-12, 1e-2 * last_shift_); mu < 1e6; mu *= 10.0)
       {
-        for (const auto i : diagonal_.locally_owned_elements())
-          H.add(i, i, (mu - added) * diagonal_(i));
-        H.compress(VectorOperation::add);
+        internal::add_to_diagonal(H, diagonal_, mu - added);
         added = mu;
         ++factorizations;
         solvers_.solver->prepare(H);
@@ -125,7 +126,8 @@ namespace nappe
     return false;
   }
 
-  MinimizerReport EnergyMinimizer::minimize_line_search(Vector &state, const LoadLevel &level, double force_scale)
+  MinimizerReport EnergyMinimizer::minimize_line_search(Vector &state, const LoadLevel &level, double force_scale,
+                                                        const IterateCheck &keep_going)
   {
     MinimizerReport report;
     Vector          ghosted   = system_.make_ghosted_vector();
@@ -217,6 +219,12 @@ namespace nappe
           {
             report.message = "the energy line search found no decrease (the Newton direction is not a descent "
                              "direction at this accuracy)";
+            return report;
+          }
+        if (keep_going && !keep_going(state, rec))
+          {
+            report.stopped = true;
+            report.message = "stopped by the caller after " + std::to_string(it + 1) + " iterations";
             return report;
           }
       }

@@ -4,6 +4,8 @@
 #include <nappe/solvers/symmetric_direct_solver.h>
 #include <nappe/solvers/trust_region_step.h>
 
+#include "matrix_diagonal.h"
+
 #include <algorithm>
 #include <cmath>
 
@@ -37,9 +39,7 @@ namespace nappe
   {
     if (lambda == shift_)
       return;
-    for (const auto i : weights_->locally_owned_elements())
-      H_->add(i, i, (lambda - shift_) * (*weights_)(i));
-    H_->compress(dealii::VectorOperation::add);
+    internal::add_to_diagonal(*H_, *weights_, lambda - shift_);
     shift_    = lambda;
     prepared_ = false;
   }
@@ -64,24 +64,6 @@ namespace nappe
       }
     prepared_ = true;
     return count == 0;
-  }
-
-  // Gershgorin: H + λS is strictly diagonally dominant with a positive diagonal, hence positive
-  // definite, once H_ii + λS_i > Σ_{j≠i}|H_ij| in every row.
-  double MoreSorensenSubproblem::diagonal_dominance_shift() const
-  {
-    double shift = 0.0;
-    for (const auto i : weights_->locally_owned_elements())
-      {
-        double off = 0.0, diagonal = 0.0;
-        for (auto entry = H_->begin(i); entry != H_->end(i); ++entry)
-          if (entry->column() == i)
-            diagonal += entry->value();
-          else
-            off += std::abs(entry->value());
-        shift = std::max(shift, (off - diagonal) / (*weights_)(i));
-      }
-    return dealii::Utilities::MPI::max(shift, weights_->get_mpi_communicator());
   }
 
   double MoreSorensenSubproblem::scaled_norm(const Vector &v) const
@@ -122,7 +104,7 @@ namespace nappe
     weights_  = &weights;
     shift_    = 0.0;
     lower_    = 0.0;
-    gershgorin_ = diagonal_dominance_shift();
+    gershgorin_ = -1.0;
     Vector scaled = gradient;
     for (const auto i : scaled.locally_owned_elements())
       scaled(i) /= weights(i);
@@ -204,7 +186,10 @@ namespace nappe
     if (inertia_ == 0 && shift_ == 0.0)
       return finish(dogleg(radius), 0.0);
 
-    double lower = lower_, upper = std::max(gershgorin_, 0.0) + gradient_length_ / radius;
+    // Gershgorin's bound, needed only here (not by the Newton step nor the dogleg).
+    if (gershgorin_ < 0.0)
+      gershgorin_ = internal::gershgorin_shift(*H_, *weights_, shift_);
+    double lower = lower_, upper = gershgorin_ + gradient_length_ / radius;
     Vector p = newton_step_, w = newton_step_, Sp = newton_step_;
     double lambda   = 0.0;
     bool   have_p   = inertia_ == 0 && shift_ == 0.0 && prepared_; // the Newton step at λ = 0

@@ -3,6 +3,7 @@
 #include <nappe/solvers/hessian_solver.h>
 #include <nappe/solvers/sheet_system.h>
 
+#include <functional>
 #include <ostream>
 #include <string>
 #include <vector>
@@ -64,6 +65,8 @@ namespace nappe
     unsigned int negative_pivots = 0;
     unsigned int saddle_escapes  = 0;
     unsigned int factorizations  = 0; ///< factorisations (HessianSolver::prepare) this minimisation used
+    /// Stopped early because the caller's IterateCheck returned false (not converged, not a failure).
+    bool         stopped         = false;
     std::vector<IterationRecord> history;
   };
 
@@ -89,13 +92,20 @@ namespace nappe
   class EnergyMinimizer
   {
   public:
+    /// Called with each accepted iterate (owned vector) and the record of the iteration that reached
+    /// it (its negative pivots are those of the Hessian the step was computed with); returning false
+    /// stops the minimisation (MinimizerReport::stopped). Lets a caller give up on an iterate that
+    /// has already told it what it needs, e.g. that it left the branch a continuation follows.
+    using IterateCheck = std::function<bool(const Vector &state, const IterationRecord &step)>;
+
     /// With @p solvers empty, the defaults of SolverSettings (MUMPS LDLᵀ and its inertia).
     EnergyMinimizer(SheetSystem &system, const MinimizerSettings &settings, std::ostream *log = nullptr,
                     HessianSolvers solvers = {});
 
     /// Minimises from @p state (owned vector, satisfying the constraints) at the load level (λ, c).
-    /// @p force_scale sets the residual tolerance [N].
-    MinimizerReport minimize(Vector &state, const LoadLevel &level, double force_scale);
+    /// @p force_scale sets the residual tolerance [N]; @p keep_going, if set, is asked after each step.
+    MinimizerReport minimize(Vector &state, const LoadLevel &level, double force_scale,
+                             const IterateCheck &keep_going = {});
 
     const SheetSystem &system() const { return system_; }
     const MinimizerSettings &settings() const { return settings_; }
@@ -115,8 +125,10 @@ namespace nappe
     LowestEigenpair lowest_curvature();
 
   private:
-    MinimizerReport minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale);
-    MinimizerReport minimize_line_search(Vector &state, const LoadLevel &level, double force_scale);
+    MinimizerReport minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale,
+                                          const IterateCheck &keep_going);
+    MinimizerReport minimize_line_search(Vector &state, const LoadLevel &level, double force_scale,
+                                         const IterateCheck &keep_going);
     void         set_scaling(const SparseMatrix &H);
     unsigned int factorize_positive_definite(double &shift, unsigned int &factorizations);
     bool         line_search(Vector &state, const Vector &direction, double energy, double slope,

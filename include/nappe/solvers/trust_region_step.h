@@ -79,7 +79,6 @@ namespace nappe
   private:
     bool   factorize_at(double lambda, unsigned int &count);
     void   shift_to(double lambda);
-    double diagonal_dominance_shift() const;
     double scaled_norm(const Vector &v) const;
     void   solve_shifted(const Vector &rhs, Vector &x) const;
     LowestEigenpair lowest_shifted_eigenpair();
@@ -96,7 +95,7 @@ namespace nappe
     bool           prepared_ = false; ///< the factorisation is of H + shift_·S
     unsigned int   inertia_  = 0;     ///< negative eigenvalues of the unshifted H
     double         lower_    = 0.0;   ///< λ_L from positive definiteness: λ* ≥ lower_ for every radius
-    double         gershgorin_ = 0.0; ///< H + λS is diagonally dominant, hence positive definite, for λ > this
+    double         gershgorin_ = -1.0; ///< H + λS is positive definite for λ > this (Gershgorin); < 0: not yet known
     Vector         newton_step_;           ///< −H⁻¹g if H is positive definite
     double         newton_length_   = -1.0;
     double         newton_decrement_ = -1.0;
