@@ -11,6 +11,7 @@
 #include <limits>
 #include <optional>
 #include <sstream>
+#include <vector>
 
 namespace nappe::internal
 {
@@ -24,6 +25,13 @@ namespace nappe::internal
       Vector tangent;   ///< dU/dΓ [m per J/m²]
       double fraction;  ///< conformed fraction [-]
       double curvature; ///< lowest curvature μ₁ (negative: unknown) [-]
+      double rate;      ///< max |dw/d ln Γ| [m]: grows like 1/μ of the fold's mode as a fold nears
+    };
+
+    /// What the fold estimates need of the previous state on the branch.
+    struct Previous
+    {
+      double ln_gamma, curvature, rate;
     };
 
     /// A trial beyond the anchor that did not continue the branch: it left it, crossed the target
@@ -35,6 +43,9 @@ namespace nappe::internal
       bool              failed     = true;
       bool              on_branch  = false;
       bool              crosses    = false;
+      /// The corrector was stopped once its iterate had clearly left the branch: no state, and the
+      /// bracket it closes must be confirmed by a full minimisation.
+      bool              abandoned  = false;
       Vector            state;
       AdhesionPathPoint point;
       std::string       message;
@@ -51,13 +62,51 @@ namespace nappe::internal
       tangent /= problem_gamma(); // dU/dΓ = (dU/dc)/Γ_problem
       const LowestEigenpair mu = minimizer_.lowest_curvature();
       point.lowest_curvature   = mu.available ? mu.value : -1.0;
-      return Anchor{g, u, tangent, point.conformed_fraction, point.lowest_curvature};
+      const double rate = largest_entry(tangent, w_dofs_, system_.communicator()) * g;
+      return Anchor{g, u, tangent, point.conformed_fraction, point.lowest_curvature, rate};
     };
 
     Anchor lo = anchor_at(state, gamma, path.points.back());
-    std::optional<std::pair<double, double>> before; // (ln Γ, μ₁) of the previous state on this branch
-    std::optional<Trial>                     hi;     // the nearest trial beyond lo that did not continue it
-    double step = settings_.initial_step, last_width = std::numeric_limits<double>::max();
+    std::optional<Previous> before; // the previous state on this branch
+    std::optional<Trial>    hi;     // the nearest trial beyond lo that did not continue it
+    std::vector<Trial>      beyond; // farther such trials, nearest last: the next bracket if hi continues it
+    // A fold ahead is extrapolated from μ₁ and from the rate 1/max|dw/d ln Γ|, which vanishes like
+    // the square root of the distance too (dU/dt is dominated by the fold's mode over its
+    // eigenvalue); μ₁ need not belong to the fold's mode (it does not where the adhesion front lets
+    // go, and it drops where the lowest mode changes). Inside a bracket the branch is known to end:
+    // the nearer estimate counts. Outside one a fold is announced only where both see it coming:
+    // far from a fold the rate alone underestimates its distance and would shorten every step, and
+    // μ₁ alone announces folds that are only a change of its mode.
+    const auto fold_ahead = [&](bool in_bracket) {
+      if (!before)
+        return -1.0;
+      const double by_curvature =
+        continuation::fold_distance(before->ln_gamma, before->curvature, std::log(lo.gamma), lo.curvature);
+      const double by_rate = before->rate > 0.0 && lo.rate > 0.0 ?
+                               continuation::fold_distance(before->ln_gamma, 1.0 / before->rate, std::log(lo.gamma),
+                                                           1.0 / lo.rate) :
+                               -1.0;
+      if (!in_bracket)
+        return by_rate >= 0.0 ? by_curvature : -1.0;
+      if (by_curvature < 0.0 || by_rate < 0.0)
+        return std::max(by_curvature, by_rate);
+      return std::min(by_curvature, by_rate);
+    };
+    const auto next_beyond = [&]() -> std::optional<Trial> {
+      if (beyond.empty())
+        return std::nullopt;
+      Trial t = std::move(beyond.back());
+      beyond.pop_back();
+      return t;
+    };
+    // The first step on a branch: the one over which the tangent predicts a change of w of a quarter
+    // of what counts as leaving the branch, within [initial step, largest step].
+    const auto first_step = [&](const Anchor &a) {
+      const double quarter = 0.25 * settings_.largest_deflection_change * h0;
+      return a.rate > 0.0 ? std::clamp(quarter / a.rate, settings_.initial_step, settings_.largest_step) :
+                            settings_.initial_step;
+    };
+    double step = first_step(lo), last_width = std::numeric_limits<double>::max();
     bool   bisect = false;
     Vector predicted = state, corrected = state;
 
@@ -72,10 +121,11 @@ namespace nappe::internal
           }
         // Where to try: inside the bracket if there is one, else one step on, short of an announced fold.
         double trial_gamma = 0.0;
+        bool   confirming  = false;
         if (hi)
           {
             const double width = ln_distance(lo.gamma, hi->gamma);
-            if (width <= tolerance * 1.000001 && hi->from_gamma == lo.gamma)
+            if (width <= tolerance * 1.000001 && hi->from_gamma == lo.gamma && !hi->abandoned)
               {
                 // The bracket is closed by a trial predicted from lo itself: the jump or crossing.
                 if (hi->failed)
@@ -88,30 +138,36 @@ namespace nappe::internal
                     break;
                   }
                 hi->point.after_jump = !hi->on_branch;
-                if (hi->on_branch)
-                  before = std::make_pair(std::log(lo.gamma), lo.curvature);
+                const bool crossing = hi->on_branch;
+                if (crossing)
+                  before = Previous{std::log(lo.gamma), lo.curvature, lo.rate};
                 else
                   before.reset(); // a new branch
                 path.points.push_back(hi->point);
                 lo = anchor_at(hi->state, hi->gamma, path.points.back());
-                if (!hi->on_branch)
-                  step = settings_.initial_step;
-                hi.reset();
+                if (!crossing)
+                  {
+                    step = first_step(lo);
+                    beyond.clear();
+                  }
+                hi = next_beyond(); // past a crossing, the branch may still end where a farther trial left it
                 last_width = std::numeric_limits<double>::max();
                 bisect     = false;
                 progress(path, lo.gamma);
                 continue;
               }
             if (width <= tolerance * 1.000001)
-              trial_gamma = hi->gamma; // confirm the jump from the last state on the branch
+              {
+                trial_gamma = hi->gamma; // confirm the jump from the last state on the branch
+                confirming  = true;
+              }
             else
               {
                 double estimate = -1.0;
                 if (hi->crosses)
                   estimate = width * (target - lo.fraction) / (hi->point.conformed_fraction - lo.fraction);
-                else if (before)
-                  estimate = continuation::fold_distance(before->first, before->second, std::log(lo.gamma),
-                                                         lo.curvature);
+                else
+                  estimate = fold_ahead(true);
                 bisect      = bisect || width > 0.5 * last_width;
                 last_width  = width;
                 trial_gamma = next_gamma(lo.gamma, continuation::bracket_trial(width, estimate, tolerance, bisect),
@@ -121,13 +177,9 @@ namespace nappe::internal
         else
           {
             double distance = step;
-            if (before)
-              {
-                const double fold =
-                  continuation::fold_distance(before->first, before->second, std::log(lo.gamma), lo.curvature);
-                if (fold >= 0.0 && fold < distance)
-                  distance = std::max(fold - 0.45 * tolerance, 0.9 * tolerance);
-              }
+            const double fold = fold_ahead(false);
+            if (fold >= 0.0 && fold < distance)
+              distance = std::max(fold - 0.45 * tolerance, 0.9 * tolerance);
             trial_gamma = next_gamma(lo.gamma, distance, path.lowering);
           }
 
@@ -136,7 +188,22 @@ namespace nappe::internal
         predicted.add(trial_gamma - lo.gamma, lo.tangent);
         system_.constraints().distribute(predicted);
         corrected = predicted;
-        const MinimizerReport report = minimizer_.minimize(corrected, level(trial_gamma), 0.0);
+        // A trial that is not the confirmation of a jump only has to tell whether it stays on the
+        // branch: the corrector stops once an iterate is four times farther from the prediction (in
+        // w or in conformed fraction) than what counts as leaving it, once it met an indefinite
+        // Hessian (the certified states of a branch and their neighbourhood have none), or after
+        // twice the iterations a step should cost (common practice, no source: a corrector that slow
+        // is rejected and the step shortened). A wrong call only costs the confirmation's solve.
+        const double predicted_fraction = fraction_of(predicted, trial_gamma);
+        unsigned int corrector_steps    = 0;
+        const EnergyMinimizer::IterateCheck near_branch = [&](const Vector &u, const IterationRecord &iteration) {
+          return ++corrector_steps <= 2 * continuation::target_iterations && iteration.negative_pivots == 0 &&
+                 max_deflection_change(u, predicted) <= 4.0 * settings_.largest_deflection_change * h0 &&
+                 std::abs(fraction_of(u, trial_gamma) - predicted_fraction) <=
+                   4.0 * settings_.largest_fraction_change;
+        };
+        const MinimizerReport report = minimizer_.minimize(corrected, level(trial_gamma), 0.0,
+                                                           confirming ? EnergyMinimizer::IterateCheck() : near_branch);
         ++path.solves;
         Trial t;
         t.gamma      = trial_gamma;
@@ -147,10 +214,15 @@ namespace nappe::internal
             t.failed = false;
             t.point  = measure(corrected, trial_gamma, report.iterations);
             share    = std::max(max_deflection_change(corrected, predicted) / (settings_.largest_deflection_change * h0),
-                             std::abs(t.point.conformed_fraction - fraction_of(predicted, trial_gamma)) /
+                             std::abs(t.point.conformed_fraction - predicted_fraction) /
                                settings_.largest_fraction_change);
             t.on_branch = share <= 1.0;
             t.crosses   = t.on_branch && (t.point.conformed_fraction >= target) != (lo.fraction >= target);
+          }
+        else if (report.stopped)
+          {
+            t.failed    = false;
+            t.abandoned = true;
           }
         else
           {
@@ -163,10 +235,10 @@ namespace nappe::internal
         if (t.on_branch && !t.crosses)
           {
             path.points.push_back(t.point);
-            before = std::make_pair(std::log(lo.gamma), lo.curvature);
+            before = Previous{std::log(lo.gamma), lo.curvature, lo.rate};
             lo     = anchor_at(corrected, trial_gamma, path.points.back());
             if (hi && ln_distance(lo.gamma, hi->gamma) < 1e-12 * tolerance)
-              hi.reset(); // the confirmation found the branch continuing
+              hi = next_beyond(); // the confirmation found the branch continuing
             if (!hi)
               step = std::clamp(step * continuation::step_factor(report.iterations, share), tolerance,
                                 settings_.largest_step);
@@ -178,7 +250,11 @@ namespace nappe::internal
           {
             last_width = std::numeric_limits<double>::max(); // a new bracket
             bisect     = false;
+            // Where the branch continues past it, the next free step starts from half this one.
+            step = std::max(tolerance, 0.5 * ln_distance(lo.gamma, t.gamma));
           }
+        else if (!hi->on_branch && ln_distance(hi->gamma, t.gamma) > 1e-12 * tolerance)
+          beyond.push_back(std::move(*hi)); // a crossing trial is superseded; a departure is kept
         hi = std::move(t);
       }
     state = lo.state;

@@ -7,7 +7,7 @@ namespace nappe::continuation
 {
   double step_factor(unsigned int corrector_iterations, double distance_share)
   {
-    const double by_iterations = std::sqrt(double(target_iterations) / std::max(1u, corrector_iterations));
+    const double by_iterations = double(target_iterations) / std::max(1u, corrector_iterations);
     const double by_distance   = std::sqrt(0.25 / std::max(distance_share, 1e-6));
     return std::clamp(std::min(by_iterations, by_distance), 0.5, 2.0);
   }

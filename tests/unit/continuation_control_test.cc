@@ -18,6 +18,15 @@ TEST(ContinuationControl, KeepsTheStepWhenTheCorrectorDidTheTargetWork)
   EXPECT_DOUBLE_EQ(step_factor(target_iterations, 0.25), 1.0);
 }
 
+TEST(ContinuationControl, ScalesTheStepInverselyWithTheCorrectorIterations)
+{
+  // Seydel's iteration-count rule (from memory): twice the target iterations halve the step, half of
+  // them double it.
+  EXPECT_DOUBLE_EQ(step_factor(2 * target_iterations, 1e-9), 0.5);
+  EXPECT_DOUBLE_EQ(step_factor(target_iterations / 2, 1e-9), 2.0);
+  EXPECT_DOUBLE_EQ(step_factor(target_iterations + 1, 1e-9), double(target_iterations) / (target_iterations + 1));
+}
+
 TEST(ContinuationControl, ScalesTheStepWithTheSquareRootOfTheCorrectorDistance)
 {
   // The predictor error grows like the step squared: a corrector distance of 4× the target share

@@ -112,15 +112,18 @@ namespace nappe
    * the predictor is U + ΔΓ·dU/dΓ (path_tangent(), one solve with the factorisation the corrector
    * already has) and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
    * branch if it is certified and differs from the prediction by at most largest_deflection_change·h₀
-   * in w and largest_fraction_change in conformed fraction. The next step is scaled from the
-   * corrector's work (its iterations and its distance, which grows with the step squared). Each
-   * accepted state's lowest curvature μ₁ (StabilityCertificate::lowest_eigenpair) announces a fold:
-   * with μ₁² linear in ln Γ near a saddle-node, two states extrapolate the fold's position, and the
-   * steps are placed to bracket it. A trial that leaves the branch or crosses the target fraction
-   * opens a bracket, refined (by the fold or crossing estimate, else by bisection) until its width
-   * in ln Γ is at most relative_tolerance; the jump is then confirmed from the last state on the
-   * branch and recorded (after_jump). The fold lies inside the recorded bracket: that width is the
-   * error of its location.
+   * in w and largest_fraction_change in conformed fraction. The first step on a branch is the one
+   * over which the tangent predicts a change of w of a quarter of that limit; the next step is scaled
+   * from the corrector's work (its iterations and its distance, which grows with the step squared).
+   * Each accepted state's lowest curvature μ₁ (StabilityCertificate::lowest_eigenpair) and its rate
+   * 1/max|dw/d ln Γ| announce a fold: both vanish like the square root of the distance to a
+   * saddle-node, so two states extrapolate the fold's position, and the steps are placed to bracket
+   * it. A trial that leaves the branch or crosses the target fraction opens a bracket, refined (by
+   * the fold or crossing estimate, else by bisection) until its width in ln Γ is at most
+   * relative_tolerance; the jump is then confirmed from the last state on the branch by a full
+   * minimisation and recorded (after_jump). The fold lies inside the recorded bracket: that width is
+   * the error of its location. Other trials stop their corrector once it has clearly left the branch
+   * (EnergyMinimizer::IterateCheck); such a trial is never recorded.
    *
    * Bisection (the earlier method): warm starts from the last state, a step is halved whenever the
    * state changes by more than the limits, until it is within relative_tolerance.

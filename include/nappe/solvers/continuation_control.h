@@ -17,8 +17,11 @@ namespace nappe
      * its iterations n against target_iterations, and its distance from the prediction as a share θ
      * of the distance that counts as leaving the branch. The predictor error grows with the step
      * squared (E. L. Allgower & K. Georg, Numerical Continuation Methods, Springer 1990, §6.1), so
-     * θ → ¼ needs the factor √(¼/θ); likewise √(n_target/n) for the iterations. The smaller of the
-     * two, clamped to [½, 2].
+     * θ → ¼ needs the factor √(¼/θ); for the iterations the factor n_target/n (the iteration-count
+     * rule of R. Seydel, Practical Bifurcation and Stability Analysis, 3rd ed., Springer 2010, §4.6,
+     * from memory: a quadratically converging corrector needs few more iterations for a much larger
+     * predictor error, so the square root grew the step too slowly). The smaller of the two, clamped
+     * to [½, 2].
      */
     double step_factor(unsigned int corrector_iterations, double distance_share);
 
