@@ -191,6 +191,13 @@ namespace nappe
           r.warnings.push_back("the topography's " + f.name + " (" + number(f.length / nm) + " nm) is resolved by " +
                                number(elements, 2) + " elements, fewer than " + number(f.elements_needed, 2) +
                                ": the substrate is seen coarser than it is; raise Domain/Global refinements");
+        // The pseudo-magnetic field is a derivative of the strain and converges one order slower; 4 elements
+        // across a feature (the resolution of the electronic demo scenarios) is common practice, no source.
+        if (p.model.material.electronic.hopping_decay > 0 && elements < 4 * (1 - 1e-9))
+          r.warnings.push_back("the pseudo-magnetic field follows the strain's gradient, and the topography's " +
+                               f.name + " (" + number(f.length / nm) + " nm) spans only " + number(elements, 2) +
+                               " elements: its peak |B| depends on the mesh; check it at one more Domain/Global "
+                               "refinement");
       }
     const double front = front_length(p), spacing = r.element_size / degree;
     r.lines.push_back("adhesion front length (4D/k)^(1/4) = " + number(front / nm) + " nm: " +

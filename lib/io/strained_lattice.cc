@@ -13,11 +13,13 @@ namespace nappe
 
   namespace
   {
+    // In nm to 8 digits; a round-off remainder of a zero component (below 1e-6 nm) is printed as 0.
     std::string nm(double length)
     {
+      const double       in_nm = length / units::nanometer;
       std::ostringstream s;
       s.precision(8);
-      s << length / units::nanometer;
+      s << (std::abs(in_nm) < 1e-6 ? 0.0 : in_nm);
       return s.str();
     }
 

@@ -109,6 +109,17 @@ TEST(ResolutionReport, CountsElementsPerFeatureAndWarnsOnlyWhenTooFew)
   EXPECT_FALSE(warns_about(exact, "wavelength"));
 }
 
+TEST(ResolutionReport, WarnsThatThePseudoMagneticFieldNeedsFourElementsPerFeatureOfAHoneycombSheet)
+{
+  // Graphene has a pseudo-magnetic field (β known): 2 elements per wavelength are too few for it.
+  EXPECT_TRUE(warns_about(resolution_report(parse({"Domain/Coarse cells x=2"})), "pseudo-magnetic field"));
+  EXPECT_FALSE(warns_about(resolution_report(parse({"Domain/Coarse cells x=4"})), "pseudo-magnetic field"));
+  // MoS2 has no pseudo-gauge coupling in the catalogue: no such warning at any resolution.
+  EXPECT_FALSE(warns_about(resolution_report(parse({"Domain/Coarse cells x=2", "Sheet/Material=MoS2",
+                                                    "Adhesion/Work of adhesion=0.22"})),
+                           "pseudo-magnetic field"));
+}
+
 TEST(ResolutionReport, CountsTheUnknownsOfASquareMeshExactly)
 {
   // 4 x 4 cells refined once: 8 x 8 Q2 cells, (2·8 + 1)² nodes, three fields (u_x, u_y, w).
