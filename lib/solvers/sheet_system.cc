@@ -132,7 +132,7 @@ namespace nappe
     , domain_(domain)
     , comm_(comm)
     , tria_(comm)
-    , fe_(FE_Q<2>(model.discretization.degree), 2, FE_Q<2>(model.discretization.degree), 1)
+    , fe_(FE_Q<2>(model.discretization.degree), 3) // one base element: what the multilevel transfer requires
     , mapping_(std::make_unique<MappingQ<2>>(1))
   {
     AssertThrow(model.discretization.degree >= 2,
