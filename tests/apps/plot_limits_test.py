@@ -311,9 +311,9 @@ class DrawsRealTransitions(unittest.TestCase):
     def test_notes_give_the_bracket_fractions_contact_and_energy(self):
         # The same numbers as nappe-limits' own transition table for this run (console output).
         notes = self.drawn["notes"]
-        self.assertIn("2: lift-off from the floor (lowering Γ, between 0.1206 and 0.1213 J/m²; conformed fraction "
-                      "83 % → 42 %; contact on raised parts + floor 50 % + 33 % → 42 % + 0 %; releases 0.0292 J/m²)",
-                      notes)
+        self.assertIn("2: lift-off from the floor (lowering Γ, between 0.1206 and 0.1213 J/m²; conformed "
+                      "fraction 83 % → 42 %; contact on raised parts + floor 50 % + 33 % → 42 % + 0 %; "
+                      "releases 0.0292 J/m²)", notes)
         self.assertTrue(notes[2].startswith("3: snap into conformation (raising Γ, between 0.2317 and 0.233 J/m²; "
                                             "conformed fraction 58 % → 100 %"), notes[2])
 
@@ -335,7 +335,7 @@ class PlotsRealOutputs(support.FigureTestCase):
         drawn = support.probe(stem)["demo-no-jumps_adhesion_loop"]
         self.assertEqual([g for ax in drawn["axes"] for g in ax["artists"] if g.startswith("transition")], [])
         self.assertEqual([text for text in drawn["axes"][0]["legend"] if "Γ):" in text.replace("\n", " ")], [])
-        self.assertEqual(len(artists(drawn, "down:piece0", axes=0)[0]["x"]), 3, "the three states of the lowering path")
+        self.assertEqual(len(artists(drawn, "down:piece0", axes=0)[0]["x"]), 3, "the lowering path's three states")
 
 
 class RejectsBadInput(support.FigureTestCase):
