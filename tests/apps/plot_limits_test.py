@@ -27,7 +27,7 @@ import tempfile
 import unittest
 
 import plot_test_support as support
-from plot_test_support import artists, edit_lines, write_text
+from plot_test_support import artists, edit_lines, run, write_text
 
 CASE_GAMMA = 0.45
 TARGET = 0.99
@@ -122,6 +122,23 @@ class WritesFigures(support.FigureTestCase):
     def test_threshold_not_found(self):
         stem = write_limits(self.dir, snap_found=False)
         self.check_run(stem, ["grating_adhesion_loop"])
+
+    def test_many_transitions_make_the_figure_taller(self):
+        """A note a transition: 30 of them do not fit below the axes of the usual figure (7.8 in at 150 dpi)."""
+        stem = write_limits(self.dir)
+        heights = {}
+        for copies in (1, 10):
+            with open(stem + "_limits.json", encoding="utf-8") as f:
+                report = json.load(f)
+            report["transitions"] = report["transitions"][:3] * copies
+            write_text(stem + "_limits.json", json.dumps(report))
+            self.assertEqual(run(stem).returncode, 0)
+            with open(stem + "_adhesion_loop.png", "rb") as f:
+                heights[copies] = int.from_bytes(f.read(24)[20:24], "big")  # PNG IHDR: width, then height
+        self.assertEqual(heights[1], round(7.8 * 150))
+        # The axes keep three quarters of the 7.8 in; below them 30 notes and the footer, one line of 8 pt each
+        # (1.35 line spacing), and 0.1 in.
+        self.assertAlmostEqual(heights[10], (0.75 * 7.8 + 0.1 + 31 * 8 * 1.35 / 72) * 150, delta=2)
 
 
 class DrawsTheLoop(unittest.TestCase):
