@@ -399,14 +399,23 @@ def legend_below(ax, handles=None, ncol=3, offset=-0.14):
                   fontsize=8, frameon=False)
 
 
+NOTES_SHARE = 0.25  # notes taller than this share of the figure make it taller instead of squeezing the axes
+
+
 def finish(fig, notes=()):
-    """Notes, then the footer, below the axes; a layout that keeps them clear of the axes."""
+    """Notes, then the footer, below the axes; a layout that keeps them clear of the axes. Many notes
+    (e.g. one a transition) make the figure taller, so that the axes keep at least 1 − NOTES_SHARE of
+    its height."""
     width, height = fig.get_size_inches()
     characters = int(width * 15)  # about what fits across the figure at 8 pt
     text = "\n".join([wrap(n, characters) for n in notes] + [FOOTER])
-    fig.text(0.5, 0.01, text, ha="center", va="bottom", fontsize=8, style="italic", color="0.3")
     line = 8 * 1.35 / 72  # inches per line of 8 pt text
-    fig.tight_layout(rect=(0, (0.1 + line * (text.count("\n") + 1)) / height, 1, 0.98))
+    notes_height = 0.1 + line * (text.count("\n") + 1)
+    if notes_height > NOTES_SHARE * height:
+        height = (1 - NOTES_SHARE) * height + notes_height
+        fig.set_size_inches(width, height)
+    fig.text(0.5, 0.01, text, ha="center", va="bottom", fontsize=8, style="italic", color="0.3")
+    fig.tight_layout(rect=(0, notes_height / height, 1, 0.98))
 
 
 def save_atomically(fig, out_dir, stem):

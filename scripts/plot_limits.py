@@ -17,7 +17,11 @@ Writes NAME_adhesion_loop (.png and .svg; NAME is the stem's file name) into the
 strain along them. Continuous stretches are drawn as lines; a jump (after_jump = 1) as a dotted arrow
 from the last state before it to the first after it, since it happens somewhere in between. Γ_hold,
 Γ_eq and Γ_snap are marked with their brackets, the case's Γ and the target fraction as reference
-lines, and each transition (if listed) by its Γ interval and a number explained below the figure.
+lines. Each listed transition is drawn in its path's colour: its Γ bracket shaded on both panels, and
+on the fraction panel a bar at the middle of the bracket from the conformed fraction before the jump
+to the one after it, ending in a marker whose shape names the kind of transition (the legend says
+each kind present in plain words), with a number that leads to its line below the figure (bracket,
+fractions, contact on raised parts and floor, energy released).
 
 Prints the files it wrote. Bad input: one message naming the file and line on stderr, exit status 2,
 nothing written. Cannot write: exit status 1.
@@ -42,6 +46,17 @@ THRESHOLDS = (("gamma_hold", "Γ_hold", r"$\Gamma_\mathrm{hold}$", "holds a conf
 EXTRA_COLUMNS = ("max_principal_strain", "energy_J_per_m2")
 RELATIVE_SLACK = 1e-9  # rounding allowed when checking lower <= value <= upper
 ARROWS = {"down": "←", "up": "→"}
+DIRECTIONS = {"down": "lowering", "up": "raising"}
+# The kinds nappe-limits names (lib/analysis/adhesion_transitions.cc): marker at the end of the bar and
+# what the kind means; any other kind ("<regime> → <regime>") gets OTHER_KIND's marker and its own name.
+KINDS = {"touch-down": ("o", "the hanging sheet first touches the surface"),
+         "tents → floor contact": ("s", "the sheet resting on the tops reaches the floor"),
+         "snap into conformation": ("^", "the sheet snaps onto the whole surface"),
+         "detachment": ("X", "the sheet lets go of the surface"),
+         "partial detachment": ("v", "the conformed sheet lets go in part"),
+         "lift-off from the floor": ("D", "the sheet leaves the floor, still held on the tops"),
+         "partial depinning": ("P", "the edge of the contact jumps; the kind of contact stays")}
+OTHER_KIND = ("h", "")
 
 
 @dataclass
@@ -63,6 +78,12 @@ class Transition:
     before: float  # conformed fraction before and after [-]
     after: float
     released: str  # energy released, as text with its unit ("" if not given)
+    contact: tuple = ()  # shares in contact over raised parts and floor, before and after [-] (if given)
+
+    @property
+    def middle(self):
+        """Where the bar stands: the middle of the bracket (geometric, as the bracket is found in ln Γ)."""
+        return math.sqrt(self.lower * self.upper)
 
 
 @dataclass
@@ -126,9 +147,12 @@ def parse_transition(raw, i, path):
         value = npl.json_number(energy, "value", path, f"{context}energy_released.")
         unit = npl.json_string(energy, "unit", path, f"{context}energy_released.")
         released = f"{npl.significant(value)} {unit.replace('^2', '²')}"
+    contact_keys = ("raised_contact_before", "floor_contact_before", "raised_contact_after", "floor_contact_after")
+    contact = tuple(fraction_entry(raw, key, path, context) for key in contact_keys) \
+        if all(key in raw for key in contact_keys) else ()
     return Transition(kind, lower, upper, npl.json_string(raw, "kind", path, context),
                       fraction_entry(raw, "fraction_before", path, context),
-                      fraction_entry(raw, "fraction_after", path, context), released)
+                      fraction_entry(raw, "fraction_after", path, context), released, contact)
 
 
 def load_summary(path, name):
@@ -205,13 +229,33 @@ def draw_paths(ax, limits, values_of):
                           f"{npl.PATH_NAMES[kind]} ({ARROWS[kind]})", f"{kind}")
 
 
-def mark_transitions(ax, limits):
-    """Each listed transition: its Γ interval shaded in its path's colour and its number beside it."""
+def shade_transitions(ax, limits):
+    """The Γ bracket of each listed transition, shaded in its path's colour (edged, so that a bracket
+    narrower than a pixel still shows)."""
     for n, t in enumerate(limits.transitions, start=1):
         colour = npl.PATH_COLOURS[t.path]
-        npl.tag(ax.axvspan(t.lower, t.upper, color=colour, alpha=0.3, linewidth=0), f"transition{n}")
-        y = 100 * 0.5 * (t.before + t.after)
-        ax.annotate(str(n), (math.sqrt(t.lower * t.upper), y), xytext=(6 if t.path == "up" else -6, 0),
+        npl.tag(ax.axvspan(t.lower, t.upper, facecolor=colour, edgecolor=colour, alpha=0.3, linewidth=0.6),
+                f"transition{n}")
+
+
+def kind_marker(kind):
+    return KINDS.get(kind, OTHER_KIND)[0]
+
+
+def mark_transitions(ax, limits):
+    """Each listed transition: its bracket shaded, a bar in its path's colour at the middle of the bracket
+    from the conformed fraction before the jump to the one after it, ending in its kind's marker, and its
+    number beside the bar."""
+    shade_transitions(ax, limits)
+    for n, t in enumerate(limits.transitions, start=1):
+        colour = npl.PATH_COLOURS[t.path]
+        y = (100 * t.before, 100 * t.after)
+        npl.tag(ax.plot([t.middle] * 2, y, color=colour, linewidth=3.2, alpha=0.6, solid_capstyle="butt",
+                        zorder=4)[0], f"transition{n}:bar")
+        npl.tag(ax.plot(t.middle, y[1], linestyle="none", marker=kind_marker(t.kind), markersize=8,
+                        color=colour, markeredgecolor="white", markeredgewidth=0.8, zorder=5)[0],
+                f"transition{n}:kind")
+        ax.annotate(str(n), (t.middle, 0.5 * sum(y)), xytext=(7 if t.path == "up" else -7, 0),
                     textcoords="offset points", ha="left" if t.path == "up" else "right", va="center",
                     fontsize=8, color=colour, fontweight="bold", bbox=npl.LABEL_BOX)
 
@@ -219,11 +263,31 @@ def mark_transitions(ax, limits):
 def transition_notes(limits):
     notes = []
     for n, t in enumerate(limits.transitions, start=1):
-        released = f", releases {t.released}" if t.released else ""
-        notes.append(f"{n}: {t.kind} ({'lowering' if t.path == 'down' else 'raising'} Γ, between "
-                     f"{npl.significant(t.lower)} and {npl.significant(t.upper)} {GAMMA_UNIT}; conformed fraction "
-                     f"{npl.percent(t.before)} → {npl.percent(t.after)}{released})")
+        contact = ""
+        if t.contact:
+            raised_before, floor_before, raised_after, floor_after = (npl.percent(c) for c in t.contact)
+            contact = (f"; contact on raised parts + floor {raised_before} + {floor_before} → "
+                       f"{raised_after} + {floor_after}")
+        released = f"; releases {t.released}" if t.released else ""
+        notes.append(f"{n}: {t.kind} ({DIRECTIONS[t.path]} Γ, between {npl.significant(t.lower, 4)} and "
+                     f"{npl.significant(t.upper, 4)} {GAMMA_UNIT}; conformed fraction {npl.percent(t.before)} → "
+                     f"{npl.percent(t.after)}{contact}{released})")
     return notes
+
+
+def transition_legend(limits):
+    """One entry a kind and path present, in the order met: the kind's marker in the path's colour and
+    what the kind means."""
+    handles, seen = [], set()
+    for t in limits.transitions:
+        if (t.path, t.kind) in seen:
+            continue
+        seen.add((t.path, t.kind))
+        meaning = KINDS.get(t.kind, OTHER_KIND)[1]
+        label = f"{t.kind} ({DIRECTIONS[t.path]} Γ)" + (f": {meaning}" if meaning else "")
+        handles.append(Line2D([], [], linestyle="none", marker=kind_marker(t.kind), markersize=8,
+                              color=npl.PATH_COLOURS[t.path], markeredgecolor="white", label=npl.wrap(label, 52)))
+    return handles
 
 
 def missing_threshold_notes(limits):
@@ -270,12 +334,14 @@ def legend_extras(limits):
                      label=f"case Γ = {npl.significant(limits.case_gamma)} {GAMMA_UNIT}"),
               Line2D([], [], color="0.35", linestyle=":", label=f"target fraction {npl.percent(limits.target)}")]
     if limits.transitions:
-        extras.append(Patch(color="0.5", alpha=0.35, label="transition n (listed below the figure)"))
-    return extras
+        extras.append(Patch(color="0.5", alpha=0.35, label="transition n: Γ bracket shaded, bar from the\n"
+                            "fraction before to after (listed below the figure)"))
+    return extras + transition_legend(limits)
 
 
 def strain_panel(ax, limits):
     draw_paths(ax, limits, lambda p: 100 * p.values["max_principal_strain"])
+    shade_transitions(ax, limits)
     threshold_marks(ax, limits, labelled=False)
     reference_lines(ax, limits, with_target=False)
     ax.set_ylabel("largest principal\nstrain [%]")

@@ -1,5 +1,5 @@
 #!/usr/bin/env python3
-"""Tests of scripts/plot_limits.py on synthetic threshold searches.
+"""Tests of scripts/plot_limits.py on synthetic threshold searches and on two real nappe-limits outputs.
 
 Usage: python3 tests/apps/plot_limits_test.py PATH/TO/scripts/plot_limits.py
 
@@ -11,20 +11,29 @@ those thresholds by their brackets (the two ladder values around each jump; the 
 geometric mean) and Γ_eq = 0.3 J/m²; the
 transitions list names the three jumps. The tests check the files, the exit status and messages, and
 what is drawn (rebuilt in a probe, plot_test_support.probe) against the numbers written here.
+
+The real outputs are in tests/apps/data/limits/ (how they were made: README.md there): demo-grating, the
+short demo of app.limits.demo_short with three transitions (two on the lowering path, one on the raising
+path), and demo-no-jumps, the same case over a Γ range without a jump (an empty transitions list). Their
+transitions are checked against the report and, independently, against the states around each jump in
+the paths file.
 """
 
+import csv
 import json
+import math
 import os
 import tempfile
 import unittest
 
 import plot_test_support as support
-from plot_test_support import artists, edit_lines, write_text
+from plot_test_support import artists, edit_lines, run, write_text
 
 CASE_GAMMA = 0.45
 TARGET = 0.99
 HOLD, SNAP, EQ = 0.2, 0.5, 0.3
 STEP_UP = 0.12  # Γ of the small jump on the raising path
+REAL = os.path.join(os.path.dirname(os.path.abspath(__file__)), "data", "limits")
 
 
 def ladder():
@@ -114,6 +123,23 @@ class WritesFigures(support.FigureTestCase):
         stem = write_limits(self.dir, snap_found=False)
         self.check_run(stem, ["grating_adhesion_loop"])
 
+    def test_many_transitions_make_the_figure_taller(self):
+        """A note a transition: 30 of them do not fit below the axes of the usual figure (7.8 in at 150 dpi)."""
+        stem = write_limits(self.dir)
+        heights = {}
+        for copies in (1, 10):
+            with open(stem + "_limits.json", encoding="utf-8") as f:
+                report = json.load(f)
+            report["transitions"] = report["transitions"][:3] * copies
+            write_text(stem + "_limits.json", json.dumps(report))
+            self.assertEqual(run(stem).returncode, 0)
+            with open(stem + "_adhesion_loop.png", "rb") as f:
+                heights[copies] = int.from_bytes(f.read(24)[20:24], "big")  # PNG IHDR: width, then height
+        self.assertEqual(heights[1], round(7.8 * 150))
+        # The axes keep three quarters of the 7.8 in; below them 30 notes and the footer, one line of 8 pt each
+        # (1.35 line spacing), and 0.1 in.
+        self.assertAlmostEqual(heights[10], (0.75 * 7.8 + 0.1 + 31 * 8 * 1.35 / 72) * 150, delta=2)
+
 
 class DrawsTheLoop(unittest.TestCase):
     @classmethod
@@ -174,10 +200,19 @@ class DrawsTheLoop(unittest.TestCase):
             span = artists(self.drawn, f"transition{n}", axes=0)[0]
             self.assertAlmostEqual(span["x"][0], min(a, b), places=9)
             self.assertAlmostEqual(span["x"][1], max(a, b), places=9)
+            bar = artists(self.drawn, f"transition{n}:bar", axes=0)[0]
+            self.assertAlmostEqual(bar["x"][0], math.sqrt(a * b), places=9)
+            self.assertAlmostEqual(bar["y"][0], 100 * before, places=6)
+            self.assertAlmostEqual(bar["y"][1], 100 * after, places=6)
         notes = self.drawn["notes"]
         self.assertEqual(len(notes), len(jumps))
         self.assertIn("the sheet lets go of the floor", notes[0])
         self.assertIn("releases 0.004 J/m²", notes[0])
+
+    def test_a_kind_nappe_does_not_name_keeps_its_own_words(self):
+        legend = [text.replace("\n", " ") for text in self.drawn["axes"][0]["legend"]]
+        self.assertIn("the sheet lets go of the floor (lowering Γ)", legend)
+        self.assertIn("the sheet snaps onto the floor (raising Γ)", legend)
 
     def test_strain_panel_follows_the_paths(self):
         strain = self.drawn["axes"][1]
@@ -194,6 +229,130 @@ class DrawsTheLoop(unittest.TestCase):
         self.assertEqual(self.drawn["axes"][0]["ylabel"], "conformed fraction [%]")
         self.assertEqual(self.drawn["axes"][1]["xlabel"], "work of adhesion Γ [J/m²]")
         self.assertEqual(self.drawn["axes"][0]["xscale"], "log", "Γ spans two decades")
+
+
+def read_real(name):
+    """The report and the paths file (rows as dicts) of a real nappe-limits output, read without the script."""
+    stem = os.path.join(REAL, name)
+    with open(stem + "_limits.json", encoding="utf-8") as f:
+        report = json.load(f)
+    with open(stem + "_adhesion_paths.csv", newline="", encoding="utf-8") as f:
+        rows = list(csv.DictReader(f))
+    return stem, report, rows
+
+
+def jumps_in_paths_file(rows):
+    """(path, state before, state after) of each row the paths file marks with a transition kind."""
+    found = []
+    for i, row in enumerate(rows):
+        if row["transition"]:
+            assert row["after_jump"] == "1" and i > 0 and rows[i - 1]["path"] == row["path"], row
+            found.append((row["path"], rows[i - 1], row))
+    return found
+
+
+class DrawsRealTransitions(unittest.TestCase):
+    """The short demo's output: every transition of the report is drawn where the paths file puts its jump."""
+
+    @classmethod
+    def setUpClass(cls):
+        cls.stem, cls.report, cls.rows = read_real("demo-grating")
+        cls.drawn = support.probe(cls.stem)["demo-grating_adhesion_loop"]
+        cls.transitions = cls.report["transitions"]
+
+    def bar(self, n):
+        bars = artists(self.drawn, f"transition{n}:bar", axes=0)
+        self.assertEqual(len(bars), 1, f"transition {n}")
+        return bars[0]
+
+    def test_fixture_has_transitions_on_both_paths(self):
+        self.assertEqual([t["path"] for t in self.transitions], ["down", "down", "up"])
+        self.assertEqual(len(jumps_in_paths_file(self.rows)), len(self.transitions))
+
+    def test_every_transition_has_one_bar_and_one_kind_marker(self):
+        loop = self.drawn["axes"][0]["artists"]
+        self.assertEqual(sorted(g for g in loop if g.endswith(":bar")),
+                         [f"transition{n}:bar" for n in range(1, len(self.transitions) + 1)])
+        self.assertEqual(sorted(g for g in loop if g.endswith(":kind")),
+                         [f"transition{n}:kind" for n in range(1, len(self.transitions) + 1)])
+
+    def test_bars_stand_in_the_bracket_from_the_fraction_before_to_after(self):
+        for n, t in enumerate(self.transitions, start=1):
+            bar = self.bar(n)
+            lower, upper = t["gamma_lower"]["value"], t["gamma_upper"]["value"]
+            self.assertEqual(bar["x"][0], bar["x"][1], "a vertical bar")
+            self.assertTrue(lower <= bar["x"][0] <= upper, f"transition {n}: {bar['x'][0]} in [{lower}, {upper}]")
+            self.assertAlmostEqual(bar["y"][0], 100 * t["fraction_before"]["value"], places=6)
+            self.assertAlmostEqual(bar["y"][1], 100 * t["fraction_after"]["value"], places=6)
+            marker = artists(self.drawn, f"transition{n}:kind", axes=0)[0]
+            self.assertEqual((marker["x"][0], marker["y"][0]), (bar["x"][1], bar["y"][1]), "marker at the after end")
+
+    def test_bars_join_the_states_around_each_jump_of_the_paths_file(self):
+        for n, (path, before, after) in enumerate(jumps_in_paths_file(self.rows), start=1):
+            bar = self.bar(n)
+            gammas = sorted((float(before["gamma_J_per_m2"]), float(after["gamma_J_per_m2"])))
+            self.assertTrue(gammas[0] <= bar["x"][0] <= gammas[1], f"transition {n}")
+            self.assertAlmostEqual(bar["y"][0], 100 * float(before["conformed_fraction"]), places=6)
+            self.assertAlmostEqual(bar["y"][1], 100 * float(after["conformed_fraction"]), places=6)
+            self.assertEqual(self.transitions[n - 1]["kind"], after["transition"])
+
+    def test_paths_are_told_apart_by_colour(self):
+        colour = {kind: artists(self.drawn, f"{kind}:piece0", axes=0)[0]["colour"] for kind in ("down", "up")}
+        self.assertNotEqual(colour["down"], colour["up"])
+        for n, t in enumerate(self.transitions, start=1):
+            self.assertEqual(self.bar(n)["colour"], colour[t["path"]], f"transition {n}")
+            self.assertEqual(artists(self.drawn, f"transition{n}:kind", axes=0)[0]["colour"], colour[t["path"]])
+
+    def test_each_kind_has_its_marker_and_a_legend_entry_in_words(self):
+        legend = [text.replace("\n", " ") for text in self.drawn["axes"][0]["legend"]]
+        marks = self.drawn["axes"][0]["legend_marks"]
+        expected = {"partial depinning (lowering Γ): the edge of the contact jumps; the kind of contact stays",
+                    "lift-off from the floor (lowering Γ): the sheet leaves the floor, still held on the tops",
+                    "snap into conformation (raising Γ): the sheet snaps onto the whole surface"}
+        self.assertEqual({text for text in legend if " Γ): " in text}, expected)
+        markers = {}
+        for n, t in enumerate(self.transitions, start=1):
+            drawn = artists(self.drawn, f"transition{n}:kind", axes=0)[0]
+            markers[t["kind"]] = drawn["marker"]
+            entry = next(i for i, text in enumerate(legend) if text.startswith(t["kind"] + " ("))
+            self.assertEqual((marks[entry]["marker"], marks[entry]["colour"]), (drawn["marker"], drawn["colour"]))
+        self.assertEqual(len(set(markers.values())), len(markers), f"one marker a kind: {markers}")
+
+    def test_brackets_are_shaded_on_both_panels(self):
+        for n, t in enumerate(self.transitions, start=1):
+            for axes in (0, 1):
+                span = artists(self.drawn, f"transition{n}", axes=axes)[0]
+                self.assertAlmostEqual(span["x"][0], t["gamma_lower"]["value"], places=9)
+                self.assertAlmostEqual(span["x"][1], t["gamma_upper"]["value"], places=9)
+
+    def test_notes_give_the_bracket_fractions_contact_and_energy(self):
+        # The same numbers as nappe-limits' own transition table for this run (console output).
+        notes = self.drawn["notes"]
+        self.assertIn("2: lift-off from the floor (lowering Γ, between 0.1206 and 0.1213 J/m²; conformed "
+                      "fraction 83 % → 42 %; contact on raised parts + floor 50 % + 33 % → 42 % + 0 %; "
+                      "releases 0.0292 J/m²)", notes)
+        self.assertTrue(notes[2].startswith("3: snap into conformation (raising Γ, between 0.2317 and 0.233 J/m²; "
+                                            "conformed fraction 58 % → 100 %"), notes[2])
+
+    def test_axes_carry_units(self):
+        self.assertEqual(self.drawn["axes"][0]["ylabel"], "conformed fraction [%]")
+        self.assertEqual(self.drawn["axes"][1]["ylabel"], "largest principal\nstrain [%]")
+        self.assertEqual(self.drawn["axes"][1]["xlabel"], "work of adhesion Γ [J/m²]")
+
+
+class PlotsRealOutputs(support.FigureTestCase):
+    def test_output_with_transitions_is_written(self):
+        self.check_run(os.path.join(REAL, "demo-grating"), ["demo-grating_adhesion_loop"], extra=("--out", self.dir))
+
+    def test_output_without_transitions_is_written_without_marks(self):
+        stem, report, rows = read_real("demo-no-jumps")
+        self.assertEqual(report["transitions"], [])
+        self.assertEqual(jumps_in_paths_file(rows), [])
+        self.check_run(stem + "_limits.json", ["demo-no-jumps_adhesion_loop"], extra=("--out", self.dir))
+        drawn = support.probe(stem)["demo-no-jumps_adhesion_loop"]
+        self.assertEqual([g for ax in drawn["axes"] for g in ax["artists"] if g.startswith("transition")], [])
+        self.assertEqual([text for text in drawn["axes"][0]["legend"] if "Γ):" in text.replace("\n", " ")], [])
+        self.assertEqual(len(artists(drawn, "down:piece0", axes=0)[0]["x"]), 3, "the lowering path's three states")
 
 
 class RejectsBadInput(support.FigureTestCase):

@@ -4,7 +4,8 @@
   (this interpreter, else Debian's /usr/bin/python3), exits 77 (skipped) when there is none.
 - `run(*args)`: runs the script; `probe(input)`: loads the input with the script's own `load` and
   `figures`, builds every figure and returns what is drawn, by figure stem and artist id (gid), as
-  plain numbers, so that a test can compare the drawn data with the numbers it wrote.
+  plain numbers (lines also with their colour and marker; legend entries with their texts and, for
+  line entries, colour and marker), so that a test can compare the drawn data with the numbers it wrote.
 - `ProbedTestCase`: one synthetic input per test class, probed once.
 - `FigureTestCase`: a temporary directory, a check that a run writes exactly the expected PNG + SVG
   files (and prints them), and a check that bad input exits 2 naming the file (and line) and writes
@@ -27,6 +28,7 @@ import json, math, sys
 sys.path.insert(0, sys.argv[1])
 module = __import__(sys.argv[2])
 import numpy as np
+from matplotlib.colors import to_hex
 from matplotlib.collections import Collection, QuadMesh
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
@@ -38,7 +40,8 @@ def plain(a):
 
 def describe(artist):
     if isinstance(artist, Line2D):
-        return {"kind": "line", "x": plain(artist.get_xdata()), "y": plain(artist.get_ydata())}
+        return {"kind": "line", "x": plain(artist.get_xdata()), "y": plain(artist.get_ydata()),
+                "colour": to_hex(artist.get_color()), "marker": str(artist.get_marker())}
     if isinstance(artist, Annotation):
         return {"kind": "arrow", "to": plain(artist.xy), "from": plain(artist.xyann)}
     if isinstance(artist, QuadMesh):
@@ -65,12 +68,17 @@ def axes_record(ax):
         gid = artist.get_gid() if hasattr(artist, "get_gid") else None
         if gid and artist is not ax:
             found.setdefault(gid, []).append(describe(artist))
+    legend = ax.get_legend()
+    handles = []
+    if legend:  # named legend_handles since matplotlib 3.7, legendHandles before
+        handles = legend.legend_handles if hasattr(legend, "legend_handles") else legend.legendHandles
     return {"artists": found, "xlabel": ax.get_xlabel(), "ylabel": ax.get_ylabel(),
             "xticks": [t.get_text() for t in ax.get_xticklabels()],
             "xtick_positions": plain(ax.get_xticks()),
             "yticks": [t.get_text() for t in ax.get_yticklabels()],
-            "xscale": ax.get_xscale(), "legend": [t.get_text() for t in ax.get_legend().get_texts()]
-            if ax.get_legend() else [], "texts": [t.get_text() for t in ax.texts]}
+            "xscale": ax.get_xscale(), "legend": [t.get_text() for t in legend.get_texts()] if legend else [],
+            "legend_marks": [describe(h) if isinstance(h, Line2D) else None for h in handles],
+            "texts": [t.get_text() for t in ax.texts]}
 
 data = module.load(sys.argv[3])
 out = {}
