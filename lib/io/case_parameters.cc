@@ -157,11 +157,15 @@ namespace nappe
     prm.declare_entry("Linear solver", SolverSettings().linear_solver,
                       Patterns::Selection(alternatives(hessian_solver_names())),
                       "How each Newton step solves with the Hessian: 'direct LDLT' is MUMPS' symmetric indefinite "
-                      "factorisation.");
+                      "factorisation; 'multilevel CG' is conjugate gradients with a geometric multigrid V-cycle on "
+                      "the mesh's coarser refinements (less memory; for large meshes, see benchmarks/README.md).");
     prm.declare_entry("Stability certificate", SolverSettings().certificate,
                       Patterns::Selection(alternatives(stability_certificate_names())),
                       "How a state is certified a stable minimum (no negative Hessian eigenvalue): 'LDLT inertia' "
-                      "counts the negative pivots of the LDLT factorisation (Sylvester's law of inertia).");
+                      "counts the negative pivots of the LDLT factorisation (Sylvester's law of inertia); "
+                      "'multilevel LOBPCG' computes the lowest eigenvalue with the multilevel preconditioner, "
+                      "without factorising (needs Linear solver = multilevel CG); 'automatic' is the one that goes "
+                      "with the linear solver.");
     prm.leave_subsection();
 
     prm.enter_subsection("Output");

@@ -330,6 +330,7 @@ namespace nappe
       p.newton.relative_tolerance = prm.get_double("Relative tolerance");
       p.solver.linear_solver      = prm.get("Linear solver");
       p.solver.certificate        = prm.get("Stability certificate");
+      check_solver_settings(p.solver);
       memory_limit                = prm.get_double("Memory limit") * 1e9;
       prm.leave_subsection();
     }

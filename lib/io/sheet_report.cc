@@ -66,7 +66,7 @@ namespace nappe
       json.end_object();
     }
 
-    void write_solver(JsonWriter &json, const SheetResult &r)
+    void write_solver(JsonWriter &json, const SheetCase &c, const SheetResult &r)
     {
       const MinimizerReport &last = r.path.final_state();
       json.begin_object("solver");
@@ -78,6 +78,8 @@ namespace nappe
       json.quantity("residual_tolerance", last.tolerance, "N");
       json.value("hessian_negative_pivots", last.negative_pivots);
       json.value("stability", last.negative_pivots == 0 ? "stable minimum (Hessian positive definite)" : "unstable");
+      json.value("linear_solver", c.problem.solver.linear_solver);
+      json.value("stability_certificate", resolved_certificate(c.problem.solver));
       json.quantity("wall_time", r.path.wall_time, "s");
       json.end_object();
     }
@@ -136,7 +138,7 @@ namespace nappe
       for (const auto &w : r.warnings)
         json.value("", w);
       json.end_array();
-      write_solver(json, r);
+      write_solver(json, c, r);
       json.end_object();
     }
   } // namespace
@@ -288,7 +290,10 @@ namespace nappe
     out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
         << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
         << ", total " << r.energy.total() / 1e-18 << "\n";
-    out << "Solver: certified stable equilibrium (Hessian positive definite; " << r.path.newton_iterations
+    const bool by_inertia = resolved_certificate(c.problem.solver) == "LDLT inertia";
+    out << (by_inertia ? "Solver: certified stable equilibrium (Hessian positive definite; " :
+                         "Solver: stable equilibrium (lowest Hessian eigenvalue positive by LOBPCG, not a proof; ")
+        << r.path.newton_iterations
         << " Newton iterations in " << r.path.steps.size() << " load step(s), " << r.path.wall_time << " s)\n";
     for (const auto &f : files)
       out << f << "\n";

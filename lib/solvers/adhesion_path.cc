@@ -41,7 +41,7 @@ namespace nappe
       , settings_(s)
       , measure_(measure)
       , system_(p.model, p.domain, comm)
-      , minimizer_(system_, corrector_settings(p, s), nullptr, make_hessian_solvers(p.solver, comm))
+      , minimizer_(system_, corrector_settings(p, s), nullptr, make_hessian_solvers(p.solver, system_))
       , log_(log)
       , w_dofs_(deflection_dofs(system_))
     {

@@ -144,6 +144,7 @@ namespace nappe
       {
         ghosted             = state;
         const EnergyParts e = system_.assemble(ghosted, level, residual_, &H, tolerance < 0.0 ? &magnitude_ : nullptr);
+        solvers_.solver->linearize(ghosted, level);
         const double      r = residual_.l2_norm();
         if (tolerance < 0.0)
           tolerance = residual_tolerance(level, force_scale, r);

@@ -1,6 +1,8 @@
 #include <deal.II/base/exceptions.h>
 
 #include <nappe/solvers/hessian_solver.h>
+#include <nappe/solvers/multilevel_certificate.h>
+#include <nappe/solvers/multilevel_hessian_solver.h>
 #include <nappe/solvers/symmetric_direct_solver.h>
 
 #include <algorithm>
@@ -8,6 +10,8 @@
 
 namespace nappe
 {
+  void HessianSolver::linearize(const Vector &, const LoadLevel &) {}
+
   LowestEigenpair StabilityCertificate::lowest_eigenpair(const SparseMatrix &, const Vector &, const Vector &)
   {
     return {};
@@ -66,7 +70,11 @@ namespace nappe
     class DirectLdlt : public HessianSolver, public StabilityCertificate
     {
     public:
-      explicit DirectLdlt(MPI_Comm comm) : mumps_(comm) {}
+      /// @p certificate_only: nothing else prepares it, so every call factorises (H may have changed in place).
+      explicit DirectLdlt(MPI_Comm comm, bool certificate_only = false)
+        : mumps_(comm)
+        , certificate_only_(certificate_only)
+      {}
 
       void prepare(const SparseMatrix &H) override
       {
@@ -79,14 +87,14 @@ namespace nappe
 
       unsigned int negative_eigenvalues(const SparseMatrix &H) override
       {
-        if (factorized_ != &H)
+        if (factorized_ != &H || certificate_only_)
           prepare(H);
         return mumps_.n_negative_pivots();
       }
 
       LowestEigenpair lowest_eigenpair(const SparseMatrix &H, const Vector &weights, const Vector &start) override
       {
-        if (factorized_ != &H)
+        if (factorized_ != &H || certificate_only_)
           prepare(H);
         return inverse_iteration(*this, H, weights, start);
       }
@@ -96,6 +104,7 @@ namespace nappe
     private:
       SymmetricDirectSolver mumps_;
       const SparseMatrix   *factorized_ = nullptr; ///< the matrix of the last factorisation
+      const bool            certificate_only_;
     };
 
     std::string listed(const std::vector<std::string> &names)
@@ -107,11 +116,18 @@ namespace nappe
     }
   } // namespace
 
-  std::vector<std::string> hessian_solver_names() { return {"direct LDLT"}; }
+  std::vector<std::string> hessian_solver_names() { return {"direct LDLT", "multilevel CG"}; }
 
-  std::vector<std::string> stability_certificate_names() { return {"LDLT inertia"}; }
+  std::vector<std::string> stability_certificate_names() { return {"automatic", "LDLT inertia", "multilevel LOBPCG"}; }
 
-  HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm)
+  std::string resolved_certificate(const SolverSettings &settings)
+  {
+    if (settings.certificate != "automatic")
+      return settings.certificate;
+    return settings.linear_solver == "multilevel CG" ? "multilevel LOBPCG" : "LDLT inertia";
+  }
+
+  void check_solver_settings(const SolverSettings &settings)
   {
     const auto solvers = hessian_solver_names(), certificates = stability_certificate_names();
     AssertThrow(std::count(solvers.begin(), solvers.end(), settings.linear_solver) == 1,
@@ -120,7 +136,30 @@ namespace nappe
     AssertThrow(std::count(certificates.begin(), certificates.end(), settings.certificate) == 1,
                 dealii::ExcMessage("Solver/Stability certificate: expected one of " + listed(certificates) +
                                    ", found '" + settings.certificate + "'."));
+    AssertThrow(settings.certificate != "multilevel LOBPCG" || settings.linear_solver == "multilevel CG",
+                dealii::ExcMessage("Solver/Stability certificate: 'multilevel LOBPCG' uses the multilevel "
+                                   "preconditioner and needs Solver/Linear solver = multilevel CG, found '" +
+                                   settings.linear_solver + "'."));
+  }
+
+  HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm)
+  {
+    check_solver_settings(settings);
+    AssertThrow(settings.linear_solver == "direct LDLT",
+                dealii::ExcMessage("Solver: the multilevel solver and certificate need the sheet's mesh hierarchy; "
+                                   "this matrix comes without one."));
     auto ldlt = std::make_shared<DirectLdlt>(comm);
     return {ldlt, ldlt};
+  }
+
+  HessianSolvers make_hessian_solvers(const SolverSettings &settings, const SheetSystem &system)
+  {
+    check_solver_settings(settings);
+    if (settings.linear_solver == "direct LDLT")
+      return make_hessian_solvers(settings, system.communicator());
+    auto multilevel = std::make_shared<MultilevelHessianSolver>(system, settings.multilevel);
+    if (resolved_certificate(settings) == "LDLT inertia")
+      return {multilevel, std::make_shared<DirectLdlt>(system.communicator(), true)};
+    return {multilevel, std::make_shared<MultilevelCertificate>(multilevel)};
   }
 } // namespace nappe

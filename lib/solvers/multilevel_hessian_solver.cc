@@ -44,6 +44,11 @@ namespace nappe
     const SparseMatrix                      *fine_matrix = nullptr;
     std::vector<Chebyshev>                   smoothers;
     std::unique_ptr<SymmetricDirectSolver>   coarse_factors;
+    std::unique_ptr<MGMatrixBase<LevelVector>>      operators;
+    std::unique_ptr<MGSmootherBase<LevelVector>>    smoother;
+    std::unique_ptr<MGCoarseGridBase<LevelVector>>  coarse_solve;
+    std::unique_ptr<Multigrid<LevelVector>>         multigrid;
+    std::unique_ptr<PreconditionMG<2, LevelVector, Transfer>> vcycle;
     mutable unsigned int                     last_iterations = 0;
 
     unsigned int n_levels() const { return coarse.size() + 1; }
@@ -149,7 +154,7 @@ namespace nappe
   } // namespace
 
   MultilevelHessianSolver::MultilevelHessianSolver(const SheetSystem &fine, const MultilevelSettings &settings)
-    : h_(std::make_unique<Hierarchy>(Hierarchy{fine, settings, {}, {}, {}, nullptr, {}, {}, 0}))
+    : h_(std::make_unique<Hierarchy>(Hierarchy{fine, settings, {}, {}, {}, nullptr, {}, {}, {}, {}, {}, {}, {}, 0}))
   {
     const SheetDomain &domain  = fine.domain();
     const unsigned int lowest  = domain.periodic ? 1 : 0; // a periodic cell keeps ≥ 2 cells per direction
@@ -216,16 +221,31 @@ namespace nappe
     if (!h_->coarse_factors)
       h_->coarse_factors = std::make_unique<SymmetricDirectSolver>(h_->fine.communicator());
     h_->coarse_factors->factorize(h_->matrix(0));
+    if (!h_->vcycle)
+      {
+        h_->operators    = std::make_unique<LevelOperators<Hierarchy>>(*h_);
+        h_->smoother     = std::make_unique<ChebyshevSmoother>(h_->smoothers);
+        h_->coarse_solve = std::make_unique<DirectCoarseSolve>(*h_->coarse_factors, h_->system(0).make_owned_vector());
+        h_->multigrid    = std::make_unique<Multigrid<LevelVector>>(*h_->operators, *h_->coarse_solve, *h_->transfer,
+                                                                 *h_->smoother, *h_->smoother, 0, h_->finest());
+        h_->vcycle = std::make_unique<PreconditionMG<2, LevelVector, Transfer>>(h_->fine.dof_handler(),
+                                                                                *h_->multigrid, *h_->transfer);
+      }
+  }
+
+  void MultilevelHessianSolver::precondition(const Vector &residual, Vector &correction) const
+  {
+    LevelVector r, z;
+    h_->init_vector(h_->finest(), r);
+    h_->init_vector(h_->finest(), z);
+    copy_owned(residual, r);
+    h_->vcycle->vmult(z, r);
+    copy_owned(z, correction);
   }
 
   void MultilevelHessianSolver::solve(const Vector &rhs, Vector &solution) const
   {
-    Assert(h_->fine_matrix != nullptr, ExcMessage("prepare() before solve()"));
-    LevelOperators<Hierarchy> operators(*h_);
-    ChebyshevSmoother         smoother(h_->smoothers);
-    DirectCoarseSolve         coarse(*h_->coarse_factors, h_->system(0).make_owned_vector());
-    Multigrid<LevelVector>    mg(operators, coarse, *h_->transfer, smoother, smoother, 0, h_->finest());
-    PreconditionMG<2, LevelVector, Transfer> preconditioner(h_->fine.dof_handler(), mg, *h_->transfer);
+    Assert(h_->vcycle, ExcMessage("prepare() before solve()"));
 
     LevelVector b, x;
     h_->init_vector(h_->finest(), b);
@@ -237,7 +257,7 @@ namespace nappe
     try
       {
         if (b_norm > 0.0)
-          cg.solve(*h_->fine_matrix, x, b, preconditioner);
+          cg.solve(*h_->fine_matrix, x, b, *h_->vcycle);
       }
     catch (const SolverControl::NoConvergence &e)
       {
@@ -259,4 +279,6 @@ namespace nappe
   }
 
   unsigned int MultilevelHessianSolver::last_iterations() const { return h_->last_iterations; }
+
+  const SheetSystem &MultilevelHessianSolver::system() const { return h_->fine; }
 } // namespace nappe

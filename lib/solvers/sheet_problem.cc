@@ -70,7 +70,7 @@ namespace nappe
            << solution.system->n_dofs() << " unknowns, Q" << problem.model.discretization.degree << ", "
            << dealii::Utilities::MPI::n_mpi_processes(comm) << " MPI rank(s)\n";
     EnergyMinimizer minimizer(*solution.system, problem.newton, log,
-                              make_hessian_solvers(problem.solver, comm));
+                              make_hessian_solvers(problem.solver, *solution.system));
     solution.state = initial_state(*solution.system, problem);
     solution.path  = follow_load_path(minimizer, solution.state, problem.stepping, log, adhesion_factor);
     return solution;

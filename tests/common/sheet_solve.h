@@ -23,11 +23,12 @@ namespace nappe::test_support
   /// Minimises from the flat state with @p load_steps equal load increments; fails the test if a
   /// step does not converge to a stable state.
   inline SolvedSheet solve_sheet(const SheetModel &model, const SheetDomain &domain, unsigned int load_steps = 1,
-                                 MPI_Comm comm = MPI_COMM_WORLD)
+                                 MPI_Comm comm = MPI_COMM_WORLD, const SolverSettings &solver = {})
   {
     SolvedSheet out;
     out.system = std::make_unique<SheetSystem>(model, domain, comm);
-    EnergyMinimizer minimizer(*out.system, MinimizerSettings(), std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr);
+    EnergyMinimizer minimizer(*out.system, MinimizerSettings(), std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr,
+                              make_hessian_solvers(solver, *out.system));
     Vector          owned = out.system->make_owned_vector();
     for (unsigned int step = 1; step <= load_steps; ++step)
       {

@@ -131,9 +131,17 @@ TEST(CaseFile, ChoosesTheSolverSeamByName)
 {
   const SheetCase c = parse(rectangle);
   EXPECT_EQ(c.problem.solver.linear_solver, "direct LDLT");
-  EXPECT_EQ(c.problem.solver.certificate, "LDLT inertia");
+  EXPECT_EQ(c.problem.solver.certificate, "automatic");
   EXPECT_NE(message_of([] { parse(rectangle, {"Solver/Linear solver=gauss seidel"}); }).find("Solver/Linear solver"),
             std::string::npos);
+  const SheetCase m = parse(rectangle, {"Solver/Linear solver=multilevel CG", "Solver/Stability certificate=multilevel LOBPCG"});
+  EXPECT_EQ(m.problem.solver.linear_solver, "multilevel CG");
+  EXPECT_EQ(m.problem.solver.certificate, "multilevel LOBPCG");
+  // The eigen-certificate needs the multilevel preconditioner: refused with the direct solver, naming both entries.
+  const std::string mismatch =
+    message_of([] { parse(rectangle, {"Solver/Stability certificate=multilevel LOBPCG"}); });
+  EXPECT_NE(mismatch.find("Solver/Stability certificate"), std::string::npos) << mismatch;
+  EXPECT_NE(mismatch.find("Solver/Linear solver = multilevel CG"), std::string::npos) << mismatch;
 }
 
 // A relative path means relative to the file that names it (here: the case file's directory).

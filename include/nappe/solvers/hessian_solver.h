@@ -22,6 +22,12 @@ namespace nappe
   public:
     virtual ~HessianSolver() = default;
 
+    /**
+     * The state (ghosted) and load level at which the next prepare()'s H is assembled. A solver that
+     * builds its own coarser operators (multilevel) assembles them here; the default ignores it.
+     */
+    virtual void linearize(const Vector &state, const LoadLevel &level);
+
     /// Prepares solves with @p H (assembled, compressed). H must stay alive and unmodified until the next prepare().
     virtual void prepare(const SparseMatrix &H) = 0;
 
@@ -75,11 +81,27 @@ namespace nappe
     virtual std::string name() const = 0;
   };
 
+  /// Settings of the multilevel solve (case file subsection "Solver").
+  struct MultilevelSettings
+  {
+    /// Coarsen the mesh hierarchy until a level has at most this many cells; that level is solved
+    /// directly (MUMPS). ≈ 12 unknowns per Q2 cell.
+    unsigned int coarsest_cells = 256;
+    /// Stop CG when ‖r‖ ≤ relative_tolerance·‖b‖ [-].
+    double relative_tolerance = 1e-8;
+    /// More iterations than this is a failure (reported with the last residual) [-].
+    unsigned int max_iterations = 200;
+    /// Degree of the Chebyshev smoother (matrix-vector products per smoothing step) [-].
+    unsigned int smoother_degree = 4;
+  };
+
   /// Choice of the solver seam's implementations (case file subsection "Solver").
   struct SolverSettings
   {
-    std::string linear_solver = "direct LDLT";          ///< a name of hessian_solver_names()
-    std::string certificate   = "LDLT inertia";         ///< a name of stability_certificate_names()
+    std::string linear_solver = "direct LDLT"; ///< a name of hessian_solver_names()
+    /// A name of stability_certificate_names(); "automatic" is the one that goes with the linear solver.
+    std::string certificate = "automatic";
+    MultilevelSettings multilevel; ///< used by "multilevel CG" and "multilevel LOBPCG"
   };
 
   /// The linear solver and the certificate one minimiser uses; they may be one object.
@@ -94,11 +116,22 @@ namespace nappe
   /// Names accepted for SolverSettings::certificate.
   std::vector<std::string> stability_certificate_names();
 
+  /// The certificate @p settings choose, "automatic" resolved: "LDLT inertia" or "multilevel LOBPCG".
+  std::string resolved_certificate(const SolverSettings &settings);
+
+  /// Throws, naming the entry, if a name is unknown or the certificate does not go with the linear solver.
+  void check_solver_settings(const SolverSettings &settings);
+
   /**
-   * Builds the chosen implementations for matrices on @p comm. "direct LDLT" is MUMPS' symmetric
+   * Builds the chosen implementations for the Hessians of @p system. "direct LDLT" is MUMPS' symmetric
    * indefinite factorisation (SymmetricDirectSolver); "LDLT inertia" counts its negative pivots
-   * (Sylvester's law of inertia) and shares the factorisation when both are chosen. Throws naming
-   * the entry if a name is unknown.
+   * (Sylvester's law of inertia) and shares the factorisation when both are chosen. "multilevel CG"
+   * is MultilevelHessianSolver; "multilevel LOBPCG" (MultilevelCertificate) needs it as the linear
+   * solver. "automatic": "LDLT inertia" with "direct LDLT", "multilevel LOBPCG" with "multilevel CG".
+   * Throws naming the entry if a name is unknown or the pair does not go together.
    */
+  HessianSolvers make_hessian_solvers(const SolverSettings &settings, const SheetSystem &system);
+
+  /// The same for matrices on @p comm that come from no sheet: only the direct solver and its inertia.
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm);
 } // namespace nappe

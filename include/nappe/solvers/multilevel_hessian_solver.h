@@ -8,20 +8,6 @@
 
 namespace nappe
 {
-  /// Settings of the multilevel solve (case file subsection "Solver").
-  struct MultilevelSettings
-  {
-    /// Coarsen the mesh hierarchy until a level has at most this many cells; that level is solved
-    /// directly (MUMPS). ≈ 12 unknowns per Q2 cell.
-    unsigned int coarsest_cells = 256;
-    /// Stop CG when ‖r‖ ≤ relative_tolerance·‖b‖ [-].
-    double relative_tolerance = 1e-8;
-    /// More iterations than this is a failure (reported with the last residual) [-].
-    unsigned int max_iterations = 200;
-    /// Degree of the Chebyshev smoother (matrix-vector products per smoothing step) [-].
-    unsigned int smoother_degree = 4;
-  };
-
   /**
    * Geometric multigrid preconditioned conjugate gradients for a positive definite sheet Hessian H,
    * a HessianSolver whose set-up and solve cost grow about linearly with the number of unknowns
@@ -48,7 +34,7 @@ namespace nappe
     ~MultilevelHessianSolver() override;
 
     /// Assembles the coarse levels' Hessians at @p state (fine, ghosted) and load level @p level.
-    void linearize(const Vector &state, const LoadLevel &level);
+    void linearize(const Vector &state, const LoadLevel &level) override;
 
     /// Sets up the smoothers with the fine Hessian @p H (assembled at the state of the last linearize()).
     void prepare(const SparseMatrix &H) override;
@@ -60,6 +46,12 @@ namespace nappe
     void solve(const Vector &rhs, Vector &solution) const override;
 
     std::string name() const override { return "multilevel CG"; }
+
+    /// @p correction = one V-cycle applied to @p residual (an approximation of H⁻¹r), after prepare().
+    void precondition(const Vector &residual, Vector &correction) const;
+
+    /// The fine sheet it solves for.
+    const SheetSystem &system() const;
 
     /// Number of levels, the fine one included.
     unsigned int n_levels() const;
