@@ -40,11 +40,3 @@ namespace
 } // namespace
 
 BENCHMARK(export_graphene_cell)->Arg(50)->Arg(160)->Arg(500)->Unit(benchmark::kMillisecond)->Iterations(1);
-
-int main(int argc, char **argv)
-{
-  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
-  benchmark::Initialize(&argc, argv);
-  benchmark::RunSpecifiedBenchmarks();
-  return 0;
-}

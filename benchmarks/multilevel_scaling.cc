@@ -1,7 +1,7 @@
 // One Newton step (assembly of residual and Hessian + linear solve) on a clamped graphene drum
 // deflected 20 nm, by the sparse direct solver (MUMPS LDLᵀ) and by multilevel CG, from 37k to 2.4M
 // unknowns (global refinements 4 → 7). Run one solver per process to read its peak memory:
-//   multilevel_scaling --benchmark_filter=direct     (refinements 4–6; 7 does not fit a 24 GB machine)
+//   multilevel_scaling --benchmark_filter=direct     (refinements 4–6; 7 not run: ≈ 17 GB extrapolated)
 //   multilevel_scaling --benchmark_filter=multilevel
 // The counters give unknowns, CG iterations, levels and the process' peak resident memory [MB].
 #include <deal.II/base/function.h>
@@ -12,31 +12,15 @@
 #include <nappe/solvers/symmetric_direct_solver.h>
 
 #include <benchmark/benchmark.h>
+#include <common/clamped_drum.h>
 #include <sys/resource.h>
 
 namespace
 {
   const double radius = 500e-9, deflection = 20e-9;
 
-  nappe::SheetModel drum_model()
-  {
-    nappe::SheetModel model;
-    model.material.youngs_modulus_2d = 340.0;
-    model.material.poisson_ratio     = 0.165;
-    model.material.bending_rigidity  = 2.2e-19;
-    model.edges[0]                   = {nappe::DeflectionCondition::clamped, nappe::InPlaneCondition::fixed};
-    model.loads.pressure             = 1e5;
-    return model;
-  }
-
-  nappe::SheetDomain drum(unsigned int refinements)
-  {
-    nappe::SheetDomain d;
-    d.shape              = nappe::SheetDomain::Shape::disk;
-    d.radius             = radius;
-    d.global_refinements = refinements;
-    return d;
-  }
+  using nappe::bench::drum;
+  using nappe::bench::drum_model;
 
   /// w = w₀(1 − r²/R²)², the clamped plate's shape, so that membrane and bending are coupled.
   class ClampedShape : public dealii::Function<2>
@@ -66,36 +50,47 @@ namespace
     return dealii::Utilities::MPI::sum(usage.ru_maxrss / 1024.0, MPI_COMM_WORLD);
   }
 
+  /// The drum at @p refinements with its deflected state: a Newton step's matrix and right-hand side.
+  struct DrumStep
+  {
+    explicit DrumStep(unsigned int refinements)
+      : system(drum_model(), drum(refinements), MPI_COMM_WORLD)
+      , state(deflected_state(system))
+      , residual(system.make_owned_vector())
+      , step(system.make_owned_vector())
+    {}
+    void assemble() { system.assemble(state, 1.0, residual, &system.hessian_matrix()); }
+
+    nappe::SheetSystem system;
+    nappe::Vector      state, residual, step;
+  };
+
   void newton_step_direct(benchmark::State &state)
   {
-    nappe::SheetSystem system(drum_model(), drum(state.range(0)), MPI_COMM_WORLD);
-    const nappe::Vector u = deflected_state(system);
-    nappe::Vector       r = system.make_owned_vector(), x = system.make_owned_vector();
+    DrumStep                     d(state.range(0));
     nappe::SymmetricDirectSolver solver(MPI_COMM_WORLD);
     for (auto _ : state)
       {
-        system.assemble(u, 1.0, r, &system.hessian_matrix());
-        solver.factorize(system.hessian_matrix());
-        solver.solve(r, x);
+        d.assemble();
+        solver.factorize(d.system.hessian_matrix());
+        solver.solve(d.residual, d.step);
       }
-    state.counters["dofs"]           = system.n_dofs();
+    state.counters["dofs"]           = d.system.n_dofs();
     state.counters["peak_memory_MB"] = peak_memory_mb();
   }
 
   void newton_step_multilevel(benchmark::State &state)
   {
-    nappe::SheetSystem system(drum_model(), drum(state.range(0)), MPI_COMM_WORLD);
-    const nappe::Vector u = deflected_state(system);
-    nappe::Vector       r = system.make_owned_vector(), x = system.make_owned_vector();
-    nappe::MultilevelHessianSolver solver(system);
+    DrumStep                       d(state.range(0));
+    nappe::MultilevelHessianSolver solver(d.system);
     for (auto _ : state)
       {
-        system.assemble(u, 1.0, r, &system.hessian_matrix());
-        solver.linearize(u, 1.0);
-        solver.prepare(system.hessian_matrix());
-        solver.solve(r, x);
+        d.assemble();
+        solver.linearize(d.state, 1.0);
+        solver.prepare(d.system.hessian_matrix());
+        solver.solve(d.residual, d.step);
       }
-    state.counters["dofs"]           = system.n_dofs();
+    state.counters["dofs"]           = d.system.n_dofs();
     state.counters["cg_iterations"]  = solver.last_iterations();
     state.counters["levels"]         = solver.n_levels();
     state.counters["peak_memory_MB"] = peak_memory_mb();
@@ -104,12 +99,3 @@ namespace
 
 BENCHMARK(newton_step_direct)->DenseRange(4, 6)->Iterations(1)->Unit(benchmark::kSecond);
 BENCHMARK(newton_step_multilevel)->DenseRange(4, 7)->Iterations(1)->Unit(benchmark::kSecond);
-
-int main(int argc, char **argv)
-{
-  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
-  benchmark::Initialize(&argc, argv);
-  benchmark::RunSpecifiedBenchmarks();
-  benchmark::Shutdown();
-  return 0;
-}

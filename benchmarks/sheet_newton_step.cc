@@ -6,28 +6,12 @@
 #include <nappe/solvers/symmetric_direct_solver.h>
 
 #include <benchmark/benchmark.h>
+#include <common/clamped_drum.h>
 
 namespace
 {
-  nappe::SheetModel drum_model()
-  {
-    nappe::SheetModel model;
-    model.material.youngs_modulus_2d = 340.0;
-    model.material.poisson_ratio     = 0.165;
-    model.material.bending_rigidity  = 2.2e-19;
-    model.edges[0]                   = {nappe::DeflectionCondition::clamped, nappe::InPlaneCondition::fixed};
-    model.loads.pressure             = 1e5;
-    return model;
-  }
-
-  nappe::SheetDomain drum(unsigned int refinements)
-  {
-    nappe::SheetDomain d;
-    d.shape              = nappe::SheetDomain::Shape::disk;
-    d.radius             = 500e-9;
-    d.global_refinements = refinements;
-    return d;
-  }
+  using nappe::bench::drum;
+  using nappe::bench::drum_model;
 
   void assemble_hessian(benchmark::State &state)
   {
@@ -52,12 +36,3 @@ namespace
 
 BENCHMARK(assemble_hessian)->Arg(3)->Arg(4)->Arg(5)->Unit(benchmark::kMillisecond);
 BENCHMARK(factorize_hessian)->Arg(3)->Arg(4)->Arg(5)->Unit(benchmark::kMillisecond);
-
-int main(int argc, char **argv)
-{
-  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
-  benchmark::Initialize(&argc, argv);
-  benchmark::RunSpecifiedBenchmarks();
-  benchmark::Shutdown();
-  return 0;
-}
