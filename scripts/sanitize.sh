@@ -11,7 +11,9 @@ dir="${NAPPE_SANITIZE_DIR:-$here/build/sanitize}"
 "$here/scripts/install-deps.sh"
 start=$(date +%s)
 # Debug information for readable reports; -O1 keeps the run time bearable; benchmarks are not tests.
-cmake -S "$here" -B "$dir" -DCMAKE_BUILD_TYPE=Release -DCMAKE_CXX_FLAGS_RELEASE="-O1 -g -DNDEBUG" \
+# gcc 12 with -fsanitize warns "may be used uninitialized" inside libstdc++'s <regex> (std::function in
+# its automaton states), a false positive that -Werror would turn into a failed build.
+cmake -S "$here" -B "$dir" -DCMAKE_BUILD_TYPE=Release -DCMAKE_CXX_FLAGS_RELEASE="-O1 -g -DNDEBUG -Wno-maybe-uninitialized" \
       -DNAPPE_SANITIZE=ON -DNAPPE_BUILD_BENCHMARKS=OFF >/dev/null
 cmake --build "$dir" -j 2
 built=$(date +%s)

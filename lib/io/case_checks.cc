@@ -164,6 +164,26 @@ namespace nappe
     return w;
   }
 
+  namespace
+  {
+    // Measured on a clamped drum, one rank (benchmarks/README.md), as multiples of the reference size
+    // of 148k unknowns: MUMPS ≈ N^1.3 in time, N^1.2 in memory; multilevel CG 0.36 GB at 148k and
+    // 3.2 GB at 2.4M unknowns (≈ N^0.8), its time that of the solve and the certificate, about twice
+    // the measured solve.
+    double step_time_estimate(const std::string &linear_solver, double relative)
+    {
+      return linear_solver == "multilevel CG" ? 8.0 * std::pow(relative, 1.1) : 4.0 * std::pow(relative, 1.3);
+    }
+
+    double memory_estimate(const std::string &linear_solver, double relative)
+    {
+      return linear_solver == "multilevel CG" ? 0.4e9 * std::pow(std::max(relative, 0.25), 0.8) :
+                                                1.0e9 * std::pow(relative, 1.2);
+    }
+
+    const double reference_unknowns = 148e3;
+  } // namespace
+
   ResolutionReport resolution_report(const SheetCase &c)
   {
     ResolutionReport r;
@@ -173,17 +193,15 @@ namespace nappe
     std::tie(r.cells, r.element_size) = mesh_size(p.domain);
     const double per_side = degree * std::sqrt(double(r.cells)) + 1;
     r.unknowns            = static_cast<unsigned long long>(3 * per_side * per_side);
-    const double relative = r.unknowns / 148e3; // the measured reference size
-    // Measured on a clamped drum, one rank (benchmarks/README.md): MUMPS ≈ N^1.3 in time, N^1.2 in memory;
-    // multilevel CG 0.36 GB at 148k and 3.2 GB at 2.4M unknowns (≈ N^0.8); its time is that of the
-    // solve and the certificate, about twice the measured solve.
-    const bool multilevel = p.solver.linear_solver == "multilevel CG";
-    r.step_time           = multilevel ? 8.0 * std::pow(relative, 1.1) : 4.0 * std::pow(relative, 1.3);
-    r.memory              = multilevel ? 0.4e9 * std::pow(std::max(relative, 0.25), 0.8) : 1.0e9 * std::pow(relative, 1.2);
+    const double relative = r.unknowns / reference_unknowns;
+    const SolverSettings used = resolved(p.solver, r.unknowns);
+    r.step_time               = step_time_estimate(used.linear_solver, relative);
+    r.memory                  = memory_estimate(used.linear_solver, relative);
     r.lines.push_back("mesh: " + std::to_string(r.cells) + " Q" + std::to_string(degree) + " cells, element size " +
                       number(r.element_size / nm) + " nm, about " + std::to_string(r.unknowns) + " unknowns");
     r.lines.push_back("estimated cost per Newton step on one core: " + number(r.step_time, 2) + " s, " +
-                      number(r.memory / 1e9, 2) + " GB (from the measured scaling of " + p.solver.linear_solver +
+                      number(r.memory / 1e9, 2) + " GB (from the measured scaling of " + used.linear_solver +
+                      (p.solver.linear_solver == "automatic" ? ", chosen automatically" : "") +
                       "; more ranks divide the memory)");
     if (!p.model.adhesion())
       return r;
@@ -221,12 +239,20 @@ namespace nappe
     if (c.problem.model.adhesion())
       check_topography(c.problem);
     const double limit = c.memory_limit > 0 ? c.memory_limit : available_memory();
-    AssertThrow(limit <= 0 || resolution.memory <= limit,
-                dealii::ExcMessage("the case needs an estimated " + number(resolution.memory / 1e9, 2) +
-                                   " GB for one Newton step (" + std::to_string(resolution.unknowns) +
-                                   " unknowns), more than the " + number(limit / 1e9, 2) + " GB " +
-                                   (c.memory_limit > 0 ? "of Solver/Memory limit" : "this machine has available") +
-                                   "; use fewer Domain/Global refinements, or raise Solver/Memory limit if you know "
-                                   "better."));
+    if (limit <= 0 || resolution.memory <= limit)
+      return;
+    // Every rank has the same estimate, so every rank throws.
+    const std::string solver     = resolved(c.problem.solver, resolution.unknowns).linear_solver;
+    const double      multilevel = memory_estimate("multilevel CG", resolution.unknowns / reference_unknowns);
+    const std::string switch_solver =
+      solver == "direct LDLT" && multilevel <= limit ?
+        "set Solver/Linear solver = multilevel CG (estimated " + number(multilevel / 1e9, 2) + " GB), " :
+        "";
+    AssertThrow(false, dealii::ExcMessage("the case needs an estimated " + number(resolution.memory / 1e9, 2) +
+                             " GB for one Newton step (" + std::to_string(resolution.unknowns) + " unknowns, " +
+                             solver + "), more than the " + number(limit / 1e9, 2) + " GB " +
+                             (c.memory_limit > 0 ? "of Solver/Memory limit" : "this machine has available") + "; " +
+                             switch_solver + "use fewer Domain/Global refinements, or raise Solver/Memory limit " +
+                             "if you know better."));
   }
 } // namespace nappe

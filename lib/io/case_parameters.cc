@@ -158,7 +158,9 @@ namespace nappe
                       Patterns::Selection(alternatives(hessian_solver_names())),
                       "How each Newton step solves with the Hessian: 'direct LDLT' is MUMPS' symmetric indefinite "
                       "factorisation; 'multilevel CG' is conjugate gradients with a geometric multigrid V-cycle on "
-                      "the mesh's coarser refinements (less memory; for large meshes, see benchmarks/README.md).");
+                      "the mesh's coarser refinements (less memory and time on large meshes, see "
+                      "benchmarks/README.md); 'automatic' is the direct solver below " +
+                        std::to_string(multilevel_crossover_unknowns) + " unknowns and the multilevel one from there on.");
     prm.declare_entry("Stability certificate", SolverSettings().certificate,
                       Patterns::Selection(alternatives(stability_certificate_names())),
                       "How a state is certified a stable minimum (no negative Hessian eigenvalue): 'LDLT inertia' "
@@ -166,6 +168,14 @@ namespace nappe
                       "'multilevel LOBPCG' computes the lowest eigenvalue with the multilevel preconditioner, "
                       "without factorising (needs Linear solver = multilevel CG); 'automatic' is the one that goes "
                       "with the linear solver.");
+    const MultilevelSettings multilevel;
+    prm.declare_entry("Multilevel coarsest cells", std::to_string(multilevel.coarsest_cells),
+                      Patterns::Integer(16, 100000),
+                      "The multilevel solver coarsens the mesh by whole refinements until a level has at most this "
+                      "many cells, and factorises that level [-].");
+    prm.declare_entry("Multilevel iteration limit", std::to_string(multilevel.max_iterations),
+                      Patterns::Integer(10, 100000),
+                      "More CG iterations than this in one solve is a failure, reported with the last residual [-].");
     prm.leave_subsection();
 
     prm.enter_subsection("Output");

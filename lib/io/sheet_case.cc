@@ -330,6 +330,8 @@ namespace nappe
       p.newton.relative_tolerance = prm.get_double("Relative tolerance");
       p.solver.linear_solver      = prm.get("Linear solver");
       p.solver.certificate        = prm.get("Stability certificate");
+      p.solver.multilevel.coarsest_cells = prm.get_integer("Multilevel coarsest cells");
+      p.solver.multilevel.max_iterations = prm.get_integer("Multilevel iteration limit");
       check_solver_settings(p.solver);
       memory_limit                = prm.get_double("Memory limit") * 1e9;
       prm.leave_subsection();

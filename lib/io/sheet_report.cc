@@ -78,8 +78,9 @@ namespace nappe
       json.quantity("residual_tolerance", last.tolerance, "N");
       json.value("hessian_negative_pivots", last.negative_pivots);
       json.value("stability", last.negative_pivots == 0 ? "stable minimum (Hessian positive definite)" : "unstable");
-      json.value("linear_solver", c.problem.solver.linear_solver);
-      json.value("stability_certificate", resolved_certificate(c.problem.solver));
+      const SolverSettings used = resolved(c.problem.solver, r.unknowns);
+      json.value("linear_solver", used.linear_solver);
+      json.value("stability_certificate", used.certificate);
       json.quantity("wall_time", r.path.wall_time, "s");
       json.end_object();
     }
@@ -290,11 +291,13 @@ namespace nappe
     out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
         << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
         << ", total " << r.energy.total() / 1e-18 << "\n";
-    const bool by_inertia = resolved_certificate(c.problem.solver) == "LDLT inertia";
+    const SolverSettings used       = resolved(c.problem.solver, r.unknowns);
+    const bool           by_inertia = used.certificate == "LDLT inertia";
     out << (by_inertia ? "Solver: certified stable equilibrium (Hessian positive definite; " :
                          "Solver: stable equilibrium (lowest Hessian eigenvalue positive by LOBPCG, not a proof; ")
         << r.path.newton_iterations
-        << " Newton iterations in " << r.path.steps.size() << " load step(s), " << r.path.wall_time << " s)\n";
+        << " Newton iterations in " << r.path.steps.size() << " load step(s), " << used.linear_solver << ", "
+        << r.path.wall_time << " s)\n";
     for (const auto &f : files)
       out << f << "\n";
     out << model_caution() << "\n";

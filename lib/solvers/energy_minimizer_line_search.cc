@@ -35,6 +35,7 @@ namespace nappe
     for (double mu = std::max(1e-12, 1e-2 * last_shift_); mu < 1e6; mu *= 10.0)
       {
         internal::add_to_diagonal(H, diagonal_, mu - added);
+        solvers_.solver->set_diagonal_shift(mu);
         added = mu;
         ++factorizations;
         solvers_.solver->prepare(H);

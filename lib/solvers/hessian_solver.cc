@@ -12,6 +12,8 @@ namespace nappe
 {
   void HessianSolver::linearize(const Vector &, const LoadLevel &) {}
 
+  void HessianSolver::set_diagonal_shift(double) {}
+
   LowestEigenpair StabilityCertificate::lowest_eigenpair(const SparseMatrix &, const Vector &, const Vector &)
   {
     return {};
@@ -116,15 +118,20 @@ namespace nappe
     }
   } // namespace
 
-  std::vector<std::string> hessian_solver_names() { return {"direct LDLT", "multilevel CG"}; }
+  std::vector<std::string> hessian_solver_names() { return {"automatic", "direct LDLT", "multilevel CG"}; }
 
   std::vector<std::string> stability_certificate_names() { return {"automatic", "LDLT inertia", "multilevel LOBPCG"}; }
 
-  std::string resolved_certificate(const SolverSettings &settings)
+  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns)
   {
-    if (settings.certificate != "automatic")
-      return settings.certificate;
-    return settings.linear_solver == "multilevel CG" ? "multilevel LOBPCG" : "LDLT inertia";
+    SolverSettings r = settings;
+    if (r.linear_solver == "automatic")
+      r.linear_solver = unknowns >= multilevel_crossover_unknowns || r.certificate == "multilevel LOBPCG" ?
+                          "multilevel CG" :
+                          "direct LDLT";
+    if (r.certificate == "automatic")
+      r.certificate = r.linear_solver == "multilevel CG" ? "multilevel LOBPCG" : "LDLT inertia";
+    return r;
   }
 
   void check_solver_settings(const SolverSettings &settings)
@@ -136,7 +143,7 @@ namespace nappe
     AssertThrow(std::count(certificates.begin(), certificates.end(), settings.certificate) == 1,
                 dealii::ExcMessage("Solver/Stability certificate: expected one of " + listed(certificates) +
                                    ", found '" + settings.certificate + "'."));
-    AssertThrow(settings.certificate != "multilevel LOBPCG" || settings.linear_solver == "multilevel CG",
+    AssertThrow(settings.certificate != "multilevel LOBPCG" || settings.linear_solver != "direct LDLT",
                 dealii::ExcMessage("Solver/Stability certificate: 'multilevel LOBPCG' uses the multilevel "
                                    "preconditioner and needs Solver/Linear solver = multilevel CG, found '" +
                                    settings.linear_solver + "'."));
@@ -145,7 +152,7 @@ namespace nappe
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm)
   {
     check_solver_settings(settings);
-    AssertThrow(settings.linear_solver == "direct LDLT",
+    AssertThrow(resolved(settings, 0).linear_solver == "direct LDLT",
                 dealii::ExcMessage("Solver: the multilevel solver and certificate need the sheet's mesh hierarchy; "
                                    "this matrix comes without one."));
     auto ldlt = std::make_shared<DirectLdlt>(comm);
@@ -155,10 +162,11 @@ namespace nappe
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, const SheetSystem &system)
   {
     check_solver_settings(settings);
-    if (settings.linear_solver == "direct LDLT")
-      return make_hessian_solvers(settings, system.communicator());
+    const SolverSettings chosen = resolved(settings, system.n_dofs());
+    if (chosen.linear_solver == "direct LDLT")
+      return make_hessian_solvers(chosen, system.communicator());
     auto multilevel = std::make_shared<MultilevelHessianSolver>(system, settings.multilevel);
-    if (resolved_certificate(settings) == "LDLT inertia")
+    if (chosen.certificate == "LDLT inertia")
       return {multilevel, std::make_shared<DirectLdlt>(system.communicator(), true)};
     return {multilevel, std::make_shared<MultilevelCertificate>(multilevel)};
   }

@@ -94,6 +94,10 @@ namespace nappe
     last_vector_            = e.vector;
     if (e.available)
       return e.value < 0.0 ? 1 : 0;
+    // A shifted H not shown positive definite counts as not positive definite: the minimiser shifts
+    // further, which costs a more damped step rather than a factorisation.
+    if (preconditioner_->diagonal_shift() > 0.0)
+      return 1;
     // Unsettled (a cluster of near-zero eigenvalues, e.g. a sheet hovering above the substrate): the
     // inertia of one factorisation decides, exactly.
     ++fallbacks_;

@@ -12,6 +12,7 @@
 #include "matrix_diagonal.h"
 
 #include <algorithm>
+#include <cmath>
 #include <sstream>
 
 namespace nappe
@@ -36,9 +37,12 @@ namespace nappe
 
   struct MultilevelHessianSolver::Hierarchy
   {
+    // The coarse systems' Hessians are this solver's own (linearize assembles them).
     const SheetSystem                       &fine;
     MultilevelSettings                       settings;
     std::vector<std::unique_ptr<SheetSystem>> coarse; ///< levels 0 … L−2, coarsest first
+    std::vector<Vector>                      coarse_scaling; ///< |diag| of each coarse Hessian, unshifted
+    double                                   coarse_shift = 0.0; ///< μ added to them as μ·|diag|
     MGLevelObject<MGTwoLevelTransfer<2, LevelVector>> transfers;
     std::unique_ptr<Transfer>                transfer;
     const SparseMatrix                      *fine_matrix = nullptr;
@@ -56,7 +60,7 @@ namespace nappe
     const SheetSystem &system(unsigned int l) const { return l == finest() ? fine : *coarse[l]; }
     const SparseMatrix &matrix(unsigned int l) const
     {
-      return l == finest() ? *fine_matrix : const_cast<SheetSystem &>(*coarse[l]).hessian_matrix();
+      return l == finest() ? *fine_matrix : coarse[l]->hessian_matrix();
     }
     void init_vector(unsigned int l, LevelVector &v) const
     {
@@ -154,7 +158,7 @@ namespace nappe
   } // namespace
 
   MultilevelHessianSolver::MultilevelHessianSolver(const SheetSystem &fine, const MultilevelSettings &settings)
-    : h_(std::make_unique<Hierarchy>(Hierarchy{fine, settings, {}, {}, {}, nullptr, {}, {}, {}, {}, {}, {}, {}, 0}))
+    : h_(std::make_unique<Hierarchy>(Hierarchy{fine, settings, {}, {}, 0.0, {}, {}, nullptr, {}, {}, {}, {}, {}, {}, {}, 0}))
   {
     const SheetDomain &domain  = fine.domain();
     const unsigned int lowest  = domain.periodic ? 1 : 0; // a periodic cell keeps ≥ 2 cells per direction
@@ -171,6 +175,7 @@ namespace nappe
         level_domain.global_refinements = r;
         h_->coarse.push_back(std::make_unique<SheetSystem>(fine.model(), level_domain, fine.communicator()));
       }
+    h_->coarse_scaling.resize(h_->coarse.size());
     h_->transfers.resize(0, h_->finest());
     for (unsigned int l = 1; l < h_->n_levels(); ++l)
       h_->transfers[l].reinit_geometric_transfer(h_->system(l).dof_handler(), h_->system(l - 1).dof_handler(),
@@ -202,7 +207,20 @@ namespace nappe
         Vector ghosted = system.make_ghosted_vector();
         ghosted        = coarse;
         system.assemble(ghosted, level, residual, &system.hessian_matrix());
+        Vector &scaling = h_->coarse_scaling[l];
+        scaling.reinit(residual);
+        internal::extract_diagonal(system.hessian_matrix(), scaling);
+        for (auto &d : scaling)
+          d = std::abs(d);
       }
+    h_->coarse_shift = 0.0;
+  }
+
+  void MultilevelHessianSolver::set_diagonal_shift(double mu)
+  {
+    for (unsigned int l = 0; l < h_->finest(); ++l)
+      internal::add_to_diagonal(h_->coarse[l]->hessian_matrix(), h_->coarse_scaling[l], mu - h_->coarse_shift);
+    h_->coarse_shift = mu;
   }
 
   void MultilevelHessianSolver::prepare(const SparseMatrix &H)
@@ -251,8 +269,10 @@ namespace nappe
     h_->init_vector(h_->finest(), b);
     h_->init_vector(h_->finest(), x);
     copy_owned(rhs, b);
-    const double  b_norm = b.l2_norm();
-    SolverControl control(h_->settings.max_iterations, h_->settings.relative_tolerance * b_norm);
+    const double  b_norm    = b.l2_norm();
+    const double  tolerance = h_->coarse_shift > 0.0 ? h_->settings.shifted_relative_tolerance :
+                                                       h_->settings.relative_tolerance;
+    SolverControl control(h_->settings.max_iterations, tolerance * b_norm);
     SolverCG<LevelVector> cg(control);
     try
       {
@@ -263,13 +283,18 @@ namespace nappe
       {
         std::ostringstream message;
         message << "Multilevel CG did not converge in " << e.last_step << " iterations (relative residual "
-                << e.last_residual / b_norm << "); the Hessian may be indefinite or the coarsest level too coarse "
-                << "for this state: use Solver/Linear solver = direct LDLT, or lower the coarsest level's size.";
+                << e.last_residual / b_norm << ", target " << tolerance
+                << "): the Hessian is near singular or indefinite in this state, or its coarse levels miss "
+                << "features of the fine mesh; use Solver/Linear solver = direct LDLT, or raise Solver/Multilevel "
+                << "coarsest cells (now " << h_->settings.coarsest_cells << ") or Solver/Multilevel iteration limit "
+                << "(now " << h_->settings.max_iterations << ").";
         throw std::runtime_error(message.str());
       }
     h_->last_iterations = control.last_step();
     copy_owned(x, solution);
   }
+
+  double MultilevelHessianSolver::diagonal_shift() const { return h_->coarse_shift; }
 
   unsigned int MultilevelHessianSolver::n_levels() const { return h_->n_levels(); }
 

@@ -40,6 +40,7 @@ namespace nappe
     if (lambda == shift_)
       return;
     internal::add_to_diagonal(*H_, *weights_, lambda - shift_);
+    solvers_.solver->set_diagonal_shift(lambda);
     shift_    = lambda;
     prepared_ = false;
   }

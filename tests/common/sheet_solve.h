@@ -13,6 +13,28 @@
 
 namespace nappe::test_support
 {
+  /**
+   * The solver settings the verification suites run with: the library's default, or the linear solver
+   * named by the environment variable NAPPE_TEST_LINEAR_SOLVER (ctest runs the suites a second time with
+   * "multilevel CG", its coarsest level lowered to 16 cells so that the small test meshes have several levels).
+   */
+  inline SolverSettings test_solver_settings()
+  {
+    SolverSettings s;
+    if (const char *name = std::getenv("NAPPE_TEST_LINEAR_SOLVER"))
+      {
+        s.linear_solver             = name;
+        s.multilevel.coarsest_cells = 16;
+      }
+    return s;
+  }
+
+  /// The test_solver_settings() implementations for @p system.
+  inline HessianSolvers test_solvers(const SheetSystem &system)
+  {
+    return make_hessian_solvers(test_solver_settings(), system);
+  }
+
   struct SolvedSheet
   {
     std::unique_ptr<SheetSystem> system;
@@ -23,7 +45,7 @@ namespace nappe::test_support
   /// Minimises from the flat state with @p load_steps equal load increments; fails the test if a
   /// step does not converge to a stable state.
   inline SolvedSheet solve_sheet(const SheetModel &model, const SheetDomain &domain, unsigned int load_steps = 1,
-                                 MPI_Comm comm = MPI_COMM_WORLD, const SolverSettings &solver = {})
+                                 MPI_Comm comm = MPI_COMM_WORLD, const SolverSettings &solver = test_solver_settings())
   {
     SolvedSheet out;
     out.system = std::make_unique<SheetSystem>(model, domain, comm);
@@ -45,6 +67,8 @@ namespace nappe::test_support
   inline SheetResult solve_and_measure(const SheetProblem &problem, MPI_Comm comm = MPI_COMM_WORLD,
                                        std::ostream *log = nullptr)
   {
-    return analyse_solution(solve_sheet_problem(problem, comm, log), problem);
+    SheetProblem with_test_solver = problem;
+    with_test_solver.solver       = test_solver_settings();
+    return analyse_solution(solve_sheet_problem(with_test_solver, comm, log), with_test_solver);
   }
 } // namespace nappe::test_support

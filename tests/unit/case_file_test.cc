@@ -130,7 +130,7 @@ end
 TEST(CaseFile, ChoosesTheSolverSeamByName)
 {
   const SheetCase c = parse(rectangle);
-  EXPECT_EQ(c.problem.solver.linear_solver, "direct LDLT");
+  EXPECT_EQ(c.problem.solver.linear_solver, "automatic");
   EXPECT_EQ(c.problem.solver.certificate, "automatic");
   EXPECT_NE(message_of([] { parse(rectangle, {"Solver/Linear solver=gauss seidel"}); }).find("Solver/Linear solver"),
             std::string::npos);
@@ -138,10 +138,33 @@ TEST(CaseFile, ChoosesTheSolverSeamByName)
   EXPECT_EQ(m.problem.solver.linear_solver, "multilevel CG");
   EXPECT_EQ(m.problem.solver.certificate, "multilevel LOBPCG");
   // The eigen-certificate needs the multilevel preconditioner: refused with the direct solver, naming both entries.
-  const std::string mismatch =
-    message_of([] { parse(rectangle, {"Solver/Stability certificate=multilevel LOBPCG"}); });
+  const std::string mismatch = message_of([] {
+    parse(rectangle, {"Solver/Linear solver=direct LDLT", "Solver/Stability certificate=multilevel LOBPCG"});
+  });
   EXPECT_NE(mismatch.find("Solver/Stability certificate"), std::string::npos) << mismatch;
   EXPECT_NE(mismatch.find("Solver/Linear solver = multilevel CG"), std::string::npos) << mismatch;
+}
+
+// "automatic" is the direct solver with its inertia below the measured crossover and the multilevel
+// solver with LOBPCG from there on; a named certificate is kept, and LOBPCG brings the multilevel solver.
+TEST(CaseFile, AutomaticSolverChoiceFollowsTheNumberOfUnknowns)
+{
+  const SolverSettings automatic;
+  const SolverSettings small = resolved(automatic, multilevel_crossover_unknowns - 1);
+  const SolverSettings large = resolved(automatic, multilevel_crossover_unknowns);
+  EXPECT_EQ(small.linear_solver, "direct LDLT");
+  EXPECT_EQ(small.certificate, "LDLT inertia");
+  EXPECT_EQ(large.linear_solver, "multilevel CG");
+  EXPECT_EQ(large.certificate, "multilevel LOBPCG");
+  SolverSettings inertia;
+  inertia.certificate = "LDLT inertia";
+  EXPECT_EQ(resolved(inertia, multilevel_crossover_unknowns).certificate, "LDLT inertia");
+  SolverSettings lobpcg;
+  lobpcg.certificate = "multilevel LOBPCG";
+  EXPECT_EQ(resolved(lobpcg, 100).linear_solver, "multilevel CG");
+  SolverSettings direct;
+  direct.linear_solver = "direct LDLT";
+  EXPECT_EQ(resolved(direct, 10 * multilevel_crossover_unknowns).linear_solver, "direct LDLT");
 }
 
 // A relative path means relative to the file that names it (here: the case file's directory).

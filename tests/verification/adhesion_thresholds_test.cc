@@ -18,6 +18,8 @@
 
 #include <gtest/gtest.h>
 
+#include "common/sheet_solve.h"
+
 #include <cmath>
 #include <cstdlib>
 #include <iostream>
@@ -58,6 +60,7 @@ namespace
       std::make_shared<SinusoidalGrating>(g.amplitude, g.wavelength), std::make_shared<Vdw93Law>(0.45, h0),
       GapMeasure::normal);
     c.stepping.load_steps             = 1;
+    c.solver                          = test_support::test_solver_settings();
     k.limits.lowest_work_of_adhesion  = g.lowest;
     k.limits.highest_work_of_adhesion = g.highest;
     k.limits.relative_tolerance       = 2e-3;

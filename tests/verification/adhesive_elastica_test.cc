@@ -36,6 +36,8 @@
 
 #include <gtest/gtest.h>
 
+#include "common/sheet_solve.h"
+
 #include <chrono>
 #include <cmath>
 #include <cstdlib>
@@ -168,7 +170,8 @@ namespace
       }
     MinimizerSettings settings;
     settings.max_iterations = 200;
-    EnergyMinimizer minimizer(system, settings, std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr);
+    EnergyMinimizer minimizer(system, settings, std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr,
+                              test_support::test_solvers(system));
     const MinimizerReport report = minimizer.minimize(owned, 1.0, 0.0);
     EXPECT_TRUE(report.converged) << report.message;
     EXPECT_EQ(report.negative_pivots, 0u);

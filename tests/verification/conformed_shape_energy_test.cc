@@ -20,6 +20,8 @@
 
 #include <gtest/gtest.h>
 
+#include "common/sheet_solve.h"
+
 #include <cmath>
 #include <cstdlib>
 #include <functional>
@@ -130,7 +132,8 @@ namespace
                                             [](const Point<2> &) { return 0.0; }, s),
                                      owned);
     out.system->constraints().distribute(owned);
-    EnergyMinimizer minimizer(*out.system, MinimizerSettings(), logging() && root() ? &std::cout : nullptr);
+    EnergyMinimizer minimizer(*out.system, MinimizerSettings(), logging() && root() ? &std::cout : nullptr,
+                              test_support::test_solvers(*out.system));
     const MinimizerReport report = minimizer.minimize(owned, 1.0, 0.0);
     EXPECT_TRUE(report.converged) << report.message;
     EXPECT_EQ(report.negative_pivots, 0u);

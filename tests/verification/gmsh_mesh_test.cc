@@ -90,7 +90,8 @@ namespace
     dealii::VectorTools::interpolate(system.mapping(), system.dof_handler(), PeriodicPerturbation(domain, 1e-6 * L),
                                      state);
     system.constraints().distribute(state);
-    EnergyMinimizer minimizer(system, MinimizerSettings(), std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr);
+    EnergyMinimizer minimizer(system, MinimizerSettings(), std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr,
+                              test_support::test_solvers(system));
     const double    force_scale = model.material.youngs_modulus_2d * model.loads.mean_strain.norm() * L;
     const MinimizerReport report = minimizer.minimize(state, 1.0, force_scale);
     ASSERT_TRUE(report.converged) << report.message;

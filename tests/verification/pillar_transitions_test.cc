@@ -23,6 +23,8 @@
 
 #include <gtest/gtest.h>
 
+#include "common/sheet_solve.h"
+
 #include <cmath>
 #include <cstdlib>
 #include <iomanip>
@@ -48,6 +50,7 @@ namespace
                                                             std::make_shared<Vdw93Law>(0.22, 0.5 * nm),
                                                             GapMeasure::normal);
     c.stepping.load_steps = 1;
+    c.solver              = test_support::test_solver_settings();
     return c;
   }
 } // namespace

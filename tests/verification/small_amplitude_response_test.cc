@@ -21,6 +21,8 @@
 
 #include <gtest/gtest.h>
 
+#include "common/sheet_solve.h"
+
 #include <cmath>
 #include <cstdlib>
 #include <iomanip>
@@ -92,7 +94,8 @@ namespace
                                      dealii::Functions::ConstantFunction<2>({0.0, 0.0, h0}), owned);
     system.constraints().distribute(owned);
     const bool      log = std::getenv("NAPPE_TEST_LOG") && dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
-    EnergyMinimizer minimizer(system, MinimizerSettings(), log ? &std::cout : nullptr);
+    EnergyMinimizer minimizer(system, MinimizerSettings(), log ? &std::cout : nullptr,
+                              test_support::test_solvers(system));
     const MinimizerReport report = minimizer.minimize(owned, 1.0, 0.0);
     EXPECT_TRUE(report.converged) << report.message;
     EXPECT_EQ(report.negative_pivots, 0u);

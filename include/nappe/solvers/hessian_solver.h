@@ -28,6 +28,13 @@ namespace nappe
      */
     virtual void linearize(const Vector &state, const LoadLevel &level);
 
+    /**
+     * The next prepare()'s H is the linearised Hessian H₀ shifted by @p mu·diag|H₀| (the minimiser's
+     * shift of an indefinite H₀; 0 after linearize()). A solver with its own coarser operators shifts
+     * them alike, so that they stay an approximation of H; the default ignores it.
+     */
+    virtual void set_diagonal_shift(double mu);
+
     /// Prepares solves with @p H (assembled, compressed). H must stay alive and unmodified until the next prepare().
     virtual void prepare(const SparseMatrix &H) = 0;
 
@@ -89,8 +96,12 @@ namespace nappe
     unsigned int coarsest_cells = 256;
     /// Stop CG when ‖r‖ ≤ relative_tolerance·‖b‖ [-].
     double relative_tolerance = 1e-8;
-    /// More iterations than this is a failure (reported with the last residual) [-].
-    unsigned int max_iterations = 200;
+    /// The same for a shifted Hessian (HessianSolver::set_diagonal_shift), an inexact Newton step's
+    /// forcing term (common practice, no source: the step is damped by the shift anyway) [-].
+    double shifted_relative_tolerance = 1e-3;
+    /// More iterations than this is a failure (reported with the last residual) [-]. A shifted step at
+    /// the start of a laid-down solve needs the most (225 on the demo cell at 50k unknowns).
+    unsigned int max_iterations = 1000;
     /// Degree of the Chebyshev smoother (matrix-vector products per smoothing step) [-].
     unsigned int smoother_degree = 4;
   };
@@ -98,7 +109,8 @@ namespace nappe
   /// Choice of the solver seam's implementations (case file subsection "Solver").
   struct SolverSettings
   {
-    std::string linear_solver = "direct LDLT"; ///< a name of hessian_solver_names()
+    /// A name of hessian_solver_names(); "automatic" chooses by the number of unknowns (resolved()).
+    std::string linear_solver = "automatic";
     /// A name of stability_certificate_names(); "automatic" is the one that goes with the linear solver.
     std::string certificate = "automatic";
     MultilevelSettings multilevel; ///< used by "multilevel CG" and "multilevel LOBPCG"
@@ -116,22 +128,38 @@ namespace nappe
   /// Names accepted for SolverSettings::certificate.
   std::vector<std::string> stability_certificate_names();
 
-  /// The certificate @p settings choose, "automatic" resolved: "LDLT inertia" or "multilevel LOBPCG".
-  std::string resolved_certificate(const SolverSettings &settings);
+  /**
+   * From this many unknowns on, "automatic" chooses the multilevel solver. Below it the direct solver
+   * was faster end to end in every case measured (benchmarks/README.md, "Crossover": the demo cell
+   * from 12.7k to 198k unknowns, where the multilevel run took 1.2 to 2 times as long, its LOBPCG
+   * certificate costing about half a solve per Newton step); above it the direct solver's memory
+   * (≈ 10 GB estimated at 10⁶ unknowns, N^1.2) outgrows a workstation while the multilevel solver's
+   * (≈ 2 GB, N^0.8) does not.
+   */
+  constexpr unsigned long long multilevel_crossover_unknowns = 1000000;
+
+  /**
+   * @p settings with both names resolved for a problem of @p unknowns: an "automatic" linear solver is
+   * "multilevel CG" from multilevel_crossover_unknowns on (or when the certificate is "multilevel
+   * LOBPCG"), else "direct LDLT"; an "automatic" certificate is "LDLT inertia" with the direct solver
+   * and "multilevel LOBPCG" with the multilevel one.
+   */
+  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns);
 
   /// Throws, naming the entry, if a name is unknown or the certificate does not go with the linear solver.
   void check_solver_settings(const SolverSettings &settings);
 
   /**
-   * Builds the chosen implementations for the Hessians of @p system. "direct LDLT" is MUMPS' symmetric
+   * Builds the chosen implementations for the Hessians of @p system, resolved() for its number of
+   * unknowns. "direct LDLT" is MUMPS' symmetric
    * indefinite factorisation (SymmetricDirectSolver); "LDLT inertia" counts its negative pivots
    * (Sylvester's law of inertia) and shares the factorisation when both are chosen. "multilevel CG"
    * is MultilevelHessianSolver; "multilevel LOBPCG" (MultilevelCertificate) needs it as the linear
-   * solver. "automatic": "LDLT inertia" with "direct LDLT", "multilevel LOBPCG" with "multilevel CG".
-   * Throws naming the entry if a name is unknown or the pair does not go together.
+   * solver. Throws naming the entry if a name is unknown or the pair does not go together.
    */
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, const SheetSystem &system);
 
-  /// The same for matrices on @p comm that come from no sheet: only the direct solver and its inertia.
+  /// The same for matrices on @p comm that come from no sheet: only the direct solver and its inertia
+  /// ("automatic" is the direct solver).
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, MPI_Comm comm);
 } // namespace nappe

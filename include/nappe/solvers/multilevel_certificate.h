@@ -23,8 +23,10 @@ namespace nappe
    * inertia gives the LDLᵀ factorisation. It counts at most one negative eigenvalue (block size one).
    * Each call starts from the last call's vector, so along a Newton iteration it needs few steps.
    * If LOBPCG does not settle the sign in its iteration budget (a cluster of near-zero eigenvalues,
-   * e.g. a sheet hovering above the substrate), one LDLᵀ factorisation decides by its inertia
-   * (counted by fallbacks()); lowest_eigenpair() then returns available = false.
+   * e.g. a sheet hovering above the substrate), a matrix the minimiser has shifted
+   * (MultilevelHessianSolver::diagonal_shift() > 0) counts as not positive definite, so that it is
+   * shifted further; an unshifted one is decided by the inertia of one LDLᵀ factorisation (counted by
+   * fallbacks()). lowest_eigenpair() then returns available = false.
    */
   class MultilevelCertificate : public StabilityCertificate
   {

@@ -36,11 +36,20 @@ namespace nappe
     /// Assembles the coarse levels' Hessians at @p state (fine, ghosted) and load level @p level.
     void linearize(const Vector &state, const LoadLevel &level) override;
 
+    /// Shifts every coarse level's Hessian by @p mu times the absolute value of its own diagonal.
+    void set_diagonal_shift(double mu) override;
+
+    /// The shift μ of the last set_diagonal_shift() since linearize() (0: H is the Hessian itself).
+    double diagonal_shift() const;
+
     /// Sets up the smoothers with the fine Hessian @p H (assembled at the state of the last linearize()).
     void prepare(const SparseMatrix &H) override;
 
     /**
-     * x = H⁻¹b to MultilevelSettings::relative_tolerance by preconditioned CG. Throws on every rank,
+     * x = H⁻¹b to MultilevelSettings::relative_tolerance by preconditioned CG; with a shifted H (a
+     * globalisation step, whose accuracy does not set the rate of Newton's method near the minimum,
+     * Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, §7.1) to MultilevelSettings::
+     * shifted_relative_tolerance. Throws on every rank,
      * with the last relative residual, if CG does not converge or meets negative curvature.
      */
     void solve(const Vector &rhs, Vector &solution) const override;
