@@ -228,8 +228,8 @@ namespace nappe
     if (spacing > front)
       r.warnings.push_back("the adhesion front (length " + number(front / nm) + " nm) is narrower than the node "
                            "spacing " + number(spacing / nm) + " nm: where the sheet lets go of the substrate the "
-                           "conformed fraction and the thresholds carry a discretisation error; check them at one "
-                           "more Domain/Global refinement");
+                           "conformed fraction, the thresholds and the strain peaks carry a discretisation error; "
+                           "check them at one more Domain/Global refinement");
     return r;
   }
 
