@@ -328,11 +328,12 @@ def adhesion_loop(limits):
 
 
 def legend_extras(limits):
+    jumped = any(p.jump.any() for p in limits.paths.values())
     extras = [Line2D([], [], color="k", linestyle=":", marker=">", markersize=5,
-                     label="jump (somewhere in that Γ interval)"),
-              Line2D([], [], color="red", linestyle=":", linewidth=1.8,
-                     label=f"case Γ = {npl.significant(limits.case_gamma)} {GAMMA_UNIT}"),
-              Line2D([], [], color="0.35", linestyle=":", label=f"target fraction {npl.percent(limits.target)}")]
+                     label="jump (somewhere in that Γ interval)")] if jumped else []
+    extras += [Line2D([], [], color="red", linestyle=":", linewidth=1.8,
+                      label=f"case Γ = {npl.significant(limits.case_gamma)} {GAMMA_UNIT}"),
+               Line2D([], [], color="0.35", linestyle=":", label=f"target fraction {npl.percent(limits.target)}")]
     if limits.transitions:
         extras.append(Patch(color="0.5", alpha=0.35, label="transition n: Γ bracket shaded, bar from the\n"
                             "fraction before to after (listed below the figure)"))

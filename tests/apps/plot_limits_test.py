@@ -352,6 +352,10 @@ class PlotsRealOutputs(support.FigureTestCase):
         drawn = support.probe(stem)["demo-no-jumps_adhesion_loop"]
         self.assertEqual([g for ax in drawn["axes"] for g in ax["artists"] if g.startswith("transition")], [])
         self.assertEqual([text for text in drawn["axes"][0]["legend"] if "Γ):" in text.replace("\n", " ")], [])
+        self.assertEqual([text for text in drawn["axes"][0]["legend"] if text.startswith("jump")], [],
+                         "no jump drawn, none in the legend")
+        with_jumps = support.probe(os.path.join(REAL, "demo-grating"))["demo-grating_adhesion_loop"]
+        self.assertEqual(len([t for t in with_jumps["axes"][0]["legend"] if t.startswith("jump")]), 1)
         self.assertEqual(len(artists(drawn, "down:piece0", axes=0)[0]["x"]), 3, "the lowering path's three states")
 
 
