@@ -137,8 +137,19 @@ namespace nappe
       CellRecord  rec;
       rec.index = cell->global_active_cell_index();
       for (const unsigned int f : cell->face_indices())
-        if (!cell->at_boundary(f) || cell->has_periodic_neighbor(f))
-          rec.neighbors.push_back(cell->neighbor_or_periodic_neighbor(f)->global_active_cell_index());
+        {
+          const bool periodic = cell->at_boundary(f);
+          if (periodic && !cell->has_periodic_neighbor(f))
+            continue;
+          const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
+          if (!neighbor->has_children())
+            rec.neighbors.push_back(neighbor->global_active_cell_index());
+          else // an adapted mesh: the finer cells along this edge
+            for (unsigned int sf = 0; sf < cell->face(f)->n_children(); ++sf)
+              rec.neighbors.push_back((periodic ? cell->periodic_neighbor_child_on_subface(f, sf)
+                                                : cell->neighbor_child_on_subface(f, sf))
+                                        ->global_active_cell_index());
+        }
       for (std::size_t q = 0; q < cp.points.size(); ++q)
         {
           const PointState &p  = cp.points[q];

@@ -26,6 +26,7 @@ namespace nappe
     r.cells     = system.dof_handler().get_triangulation().n_global_active_cells();
     r.unknowns  = system.n_dofs();
     r.ranks     = dealii::Utilities::MPI::n_mpi_processes(system.communicator());
+    r.meshes    = solution.meshes;
     if (!r.converged)
       return r;
     Vector ghosted = system.make_ghosted_vector();

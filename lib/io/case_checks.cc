@@ -194,7 +194,8 @@ namespace nappe
     const double per_side = degree * std::sqrt(double(r.cells)) + 1;
     r.unknowns            = static_cast<unsigned long long>(3 * per_side * per_side);
     const double relative = r.unknowns / reference_unknowns;
-    const SolverSettings used = resolved(p.solver, r.unknowns);
+    const bool           adaptive = p.adaptation.cycles > 0;
+    const SolverSettings used     = resolved(p.solver, r.unknowns, adaptive);
     r.step_time               = step_time_estimate(used.linear_solver, relative);
     r.memory                  = memory_estimate(used.linear_solver, relative);
     r.lines.push_back("mesh: " + std::to_string(r.cells) + " Q" + std::to_string(degree) + " cells, element size " +
@@ -203,6 +204,11 @@ namespace nappe
                       number(r.memory / 1e9, 2) + " GB (from the measured scaling of " + used.linear_solver +
                       (p.solver.linear_solver == "automatic" ? ", chosen automatically" : "") +
                       "; more ranks divide the memory)");
+    const double finest = r.element_size / std::pow(2.0, p.adaptation.cycles);
+    if (adaptive)
+      r.lines.push_back("mesh adaptation: " + std::to_string(p.adaptation.cycles) +
+                        " cycle(s) from this mesh, the finest element size " + number(finest / nm) +
+                        " nm (the estimates above are for the first mesh; every adapted mesh is reported)");
     if (!p.model.adhesion())
       return r;
     for (const auto &f : p.model.adhesion()->topography().features())
@@ -222,14 +228,16 @@ namespace nappe
                                " elements: its peak |B| depends on the mesh; check it at one more Domain/Global "
                                "refinement");
       }
-    const double front = front_length(p), spacing = r.element_size / degree;
+    // Adaptation refines every cell the front runs through, to the finest level.
+    const double front = front_length(p), spacing = finest / degree;
     r.lines.push_back("adhesion front length (4D/k)^(1/4) = " + number(front / nm) + " nm: " +
                       number(front / spacing, 2) + " node spacings");
     if (spacing > front)
       r.warnings.push_back("the adhesion front (length " + number(front / nm) + " nm) is narrower than the node "
                            "spacing " + number(spacing / nm) + " nm: where the sheet lets go of the substrate the "
                            "conformed fraction, the thresholds and the strain peaks carry a discretisation error; "
-                           "check them at one more Domain/Global refinement");
+                           "check them at one more Domain/Global refinement" +
+                           (adaptive ? " or Mesh adaptation/Cycles" : ""));
     return r;
   }
 
@@ -242,10 +250,11 @@ namespace nappe
     if (limit <= 0 || resolution.memory <= limit)
       return;
     // Every rank has the same estimate, so every rank throws.
-    const std::string solver     = resolved(c.problem.solver, resolution.unknowns).linear_solver;
+    const std::string solver =
+      resolved(c.problem.solver, resolution.unknowns, c.problem.adaptation.cycles > 0).linear_solver;
     const double      multilevel = memory_estimate("multilevel CG", resolution.unknowns / reference_unknowns);
     const std::string switch_solver =
-      solver == "direct LDLT" && multilevel <= limit ?
+      solver == "direct LDLT" && multilevel <= limit && c.problem.adaptation.cycles == 0 ?
         "set Solver/Linear solver = multilevel CG (estimated " + number(multilevel / 1e9, 2) + " GB), " :
         "";
     AssertThrow(false, dealii::ExcMessage("the case needs an estimated " + number(resolution.memory / 1e9, 2) +

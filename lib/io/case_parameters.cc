@@ -178,6 +178,25 @@ namespace nappe
                       "More CG iterations than this in one solve is a failure, reported with the last residual [-].");
     prm.leave_subsection();
 
+    prm.enter_subsection("Mesh adaptation");
+    const MeshAdaptationSettings adaptation;
+    prm.declare_entry("Cycles", "0", Patterns::Integer(0, 6),
+                      "After the solve on the uniform mesh: this many times estimate the error of the state, refine "
+                      "where it is large (and at the adhesion front), coarsen where the sheet is smooth, and solve "
+                      "again; each cycle may refine a cell once more. 0 = the uniform mesh only [-].");
+    prm.declare_entry("Refined error share", std::to_string(adaptation.refined_share), Patterns::Double(0.05, 0.95),
+                      "The fewest cells that carry this share of the estimated error are refined, counted separately "
+                      "for the volume residuals (the adhesion front) and for the edge jumps (strain and curvature "
+                      "concentrations) [-].");
+    prm.declare_entry("Strain concentration share", std::to_string(adaptation.strain_concentration_share),
+                      Patterns::Double(0.05, 1),
+                      "Cells whose largest principal strain is at least this share of the sheet's peak strain are "
+                      "refined as well, so that the reported peak is resolved [-].");
+    prm.declare_entry("Coarsened error share", std::to_string(adaptation.coarsened_share), Patterns::Double(0, 0.3),
+                      "The most cells that together carry at most this share of the estimated error are coarsened "
+                      "(never below the uniform mesh) [-].");
+    prm.leave_subsection();
+
     prm.enter_subsection("Output");
     prm.declare_entry("Directory", ".", Patterns::DirectoryName(),
                       "Where results are written (must exist), relative to the case file's directory.");

@@ -337,6 +337,24 @@ namespace nappe
       prm.leave_subsection();
     }
 
+    MeshAdaptationSettings parse_adaptation(ParameterHandler &prm, const SolverSettings &solver)
+    {
+      MeshAdaptationSettings a;
+      prm.enter_subsection("Mesh adaptation");
+      a.cycles          = prm.get_integer("Cycles");
+      a.refined_share   = prm.get_double("Refined error share");
+      a.coarsened_share = prm.get_double("Coarsened error share");
+      a.strain_concentration_share = prm.get_double("Strain concentration share");
+      prm.leave_subsection();
+      AssertThrow(a.refined_share + a.coarsened_share < 1.0,
+                  ExcMessage("Mesh adaptation/Refined error share + Coarsened error share must be below 1."));
+      AssertThrow(a.cycles == 0 || (solver.linear_solver != "multilevel CG" && solver.certificate != "multilevel LOBPCG"),
+                  ExcMessage("Mesh adaptation/Cycles > 0 needs the direct solver: Solver/Linear solver = "
+                             "multilevel CG and Stability certificate = multilevel LOBPCG coarsen by whole uniform "
+                             "refinements. Set them to 'automatic' or 'direct LDLT' / 'LDLT inertia'."));
+      return a;
+    }
+
     OutputSettings parse_output(ParameterHandler &prm)
     {
       OutputSettings o;
@@ -371,6 +389,7 @@ namespace nappe
     if (c.electronics.export_lattice)
       check_lattice_export(p.model.material, p.domain, c.electronics.lattice_export);
     parse_solver(prm, p, c.memory_limit);
+    p.adaptation = parse_adaptation(prm, p.solver);
     c.output = parse_output(prm);
     return c;
   }

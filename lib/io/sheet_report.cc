@@ -66,23 +66,58 @@ namespace nappe
       json.end_object();
     }
 
+    /// The load path's steps, without the minimisations on adapted meshes that follow it.
+    unsigned int load_steps(const SheetResult &r)
+    {
+      return r.path.steps.size() - (r.meshes.empty() ? 0 : r.meshes.size() - 1);
+    }
+
     void write_solver(JsonWriter &json, const SheetCase &c, const SheetResult &r)
     {
       const MinimizerReport &last = r.path.final_state();
       json.begin_object("solver");
       json.value("converged", r.converged);
-      json.value("load_steps", static_cast<unsigned int>(r.path.steps.size()));
+      json.value("load_steps", load_steps(r));
       json.value("step_cuts", r.path.step_cuts);
       json.value("newton_iterations", r.path.newton_iterations);
       json.quantity("final_residual", last.residual, "N");
       json.quantity("residual_tolerance", last.tolerance, "N");
       json.value("hessian_negative_pivots", last.negative_pivots);
       json.value("stability", last.negative_pivots == 0 ? "stable minimum (Hessian positive definite)" : "unstable");
-      const SolverSettings used = resolved(c.problem.solver, r.unknowns);
+      const SolverSettings used = resolved(c.problem.solver, r.unknowns, r.meshes.size() > 1);
       json.value("linear_solver", used.linear_solver);
       json.value("stability_certificate", used.certificate);
       json.quantity("wall_time", r.path.wall_time, "s");
       json.end_object();
+    }
+
+    /// The meshes of an adaptive solve, coarsest first, each with its state's error estimate.
+    void write_mesh_adaptation(JsonWriter &json, const SheetResult &r)
+    {
+      if (r.meshes.size() < 2)
+        return;
+      json.begin_array("mesh_adaptation");
+      for (const MeshCycle &m : r.meshes)
+        {
+          json.begin_object();
+          json.value("cells", m.cells);
+          json.value("degrees_of_freedom", static_cast<long long>(m.unknowns));
+          json.value("newton_iterations", m.newton_iterations);
+          json.quantity("error_indicator_sum", m.estimated_error, "J");
+          json.end_object();
+        }
+      json.end_array();
+    }
+
+    void print_mesh_adaptation(const SheetResult &r, std::ostream &out)
+    {
+      if (r.meshes.size() < 2)
+        return;
+      const MeshCycle &first = r.meshes.front(), &last = r.meshes.back();
+      out << "Mesh: adapted " << r.meshes.size() - 1 << " time(s), " << first.cells << " -> " << last.cells
+          << " cells, " << first.unknowns << " -> " << last.unknowns << " unknowns; error indicator sum "
+          << first.estimated_error / 1e-18 << " -> " << last.estimated_error / 1e-18
+          << " aJ (guides refinement, not an error bound)\n";
     }
 
     void write_lattice_export(JsonWriter &json, const SheetCase &c, const LatticeExportReport &r)
@@ -140,6 +175,7 @@ namespace nappe
         json.value("", w);
       json.end_array();
       write_solver(json, c, r);
+      write_mesh_adaptation(json, r);
       json.end_object();
     }
   } // namespace
@@ -291,12 +327,15 @@ namespace nappe
     out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
         << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
         << ", total " << r.energy.total() / 1e-18 << "\n";
-    const SolverSettings used       = resolved(c.problem.solver, r.unknowns);
+    print_mesh_adaptation(r, out);
+    const SolverSettings used       = resolved(c.problem.solver, r.unknowns, r.meshes.size() > 1);
     const bool           by_inertia = used.certificate == "LDLT inertia";
     out << (by_inertia ? "Solver: certified stable equilibrium (Hessian positive definite; " :
                          "Solver: stable equilibrium (lowest Hessian eigenvalue positive by LOBPCG, not a proof; ")
         << r.path.newton_iterations
-        << " Newton iterations in " << r.path.steps.size() << " load step(s), " << used.linear_solver << ", "
+        << " Newton iterations in " << load_steps(r) << " load step(s)"
+        << (r.meshes.size() > 1 ? " and " + std::to_string(r.meshes.size() - 1) + " adapted mesh(es)" : "") << ", "
+        << used.linear_solver << ", "
         << r.path.wall_time << " s)\n";
     for (const auto &f : files)
       out << f << "\n";

@@ -224,10 +224,19 @@ namespace nappe
                                    "Largest step."));
   }
 
+  std::string adaptive_paths_refused(unsigned int cycles)
+  {
+    return "Mesh adaptation/Cycles = " + std::to_string(cycles) +
+           ": adhesion limits, transitions and threshold sweeps follow the work of adhesion on the uniform mesh "
+           "(Domain/Global refinements), not on an adapted one; set Mesh adaptation/Cycles = 0 for them (nappe-solve "
+           "adapts its mesh).";
+  }
+
   AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
                                     const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
                                     std::ostream *log)
   {
+    AssertThrow(problem.adaptation.cycles == 0, dealii::ExcMessage(adaptive_paths_refused(problem.adaptation.cycles)));
     check_adhesion_path_settings(settings);
     internal::PathFollower follower(problem, settings, measure, comm, log);
     return follower.run(start);

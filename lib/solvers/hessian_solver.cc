@@ -122,11 +122,11 @@ namespace nappe
 
   std::vector<std::string> stability_certificate_names() { return {"automatic", "LDLT inertia", "multilevel LOBPCG"}; }
 
-  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns)
+  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns, bool adapted_mesh)
   {
     SolverSettings r = settings;
     if (r.linear_solver == "automatic")
-      r.linear_solver = unknowns >= multilevel_crossover_unknowns || r.certificate == "multilevel LOBPCG" ?
+      r.linear_solver = !adapted_mesh && (unknowns >= multilevel_crossover_unknowns || r.certificate == "multilevel LOBPCG") ?
                           "multilevel CG" :
                           "direct LDLT";
     if (r.certificate == "automatic")
@@ -162,7 +162,12 @@ namespace nappe
   HessianSolvers make_hessian_solvers(const SolverSettings &settings, const SheetSystem &system)
   {
     check_solver_settings(settings);
-    const SolverSettings chosen = resolved(settings, system.n_dofs());
+    const bool           adapted = !system.uniform_mesh();
+    const SolverSettings chosen  = resolved(settings, system.n_dofs(), adapted);
+    AssertThrow(!adapted || chosen.linear_solver == "direct LDLT",
+                dealii::ExcMessage("Solver/Linear solver = multilevel CG needs a uniformly refined mesh (its levels are "
+                                   "whole refinements); with Mesh adaptation/Cycles > 0 choose 'direct LDLT' or "
+                                   "'automatic'."));
     if (chosen.linear_solver == "direct LDLT")
       return make_hessian_solvers(chosen, system.communicator());
     auto multilevel = std::make_shared<MultilevelHessianSolver>(system, settings.multilevel);

@@ -1,5 +1,6 @@
 #include <deal.II/base/function.h>
 #include <deal.II/base/mpi.h>
+#include <deal.II/base/timer.h>
 #include <deal.II/numerics/vector_tools.h>
 
 #include <nappe/physics/adhesion_potential.h>
@@ -60,19 +61,84 @@ namespace nappe
     return state;
   }
 
+  namespace
+  {
+    MeshCycle describe_mesh(const SheetSystem &system, unsigned int newton_iterations, double estimated_error)
+    {
+      return {system.dof_handler().get_triangulation().n_global_active_cells(), system.n_dofs(), newton_iterations,
+              estimated_error};
+    }
+
+    /// The error estimate of @p solution's state; marks the cells of the next mesh if @p mark.
+    double estimate_and_mark(SheetSolution &solution, const SheetProblem &problem, double adhesion_factor, bool mark)
+    {
+      SheetSystem &system  = *solution.system;
+      Vector       ghosted = system.make_ghosted_vector();
+      ghosted              = solution.state;
+      const CellErrorIndicators indicators = estimate_cell_errors(system, ghosted, LoadLevel(1.0, adhesion_factor));
+      if (mark)
+        {
+          const unsigned int uniform = problem.domain.global_refinements;
+          mark_cells(system, indicators, problem.adaptation, uniform, uniform + problem.adaptation.cycles);
+        }
+      return indicators.total_squared;
+    }
+
+    /// One adaptation cycle: the marked mesh, the state carried over, and a minimisation at full load.
+    void adapt_and_resolve(SheetSolution &solution, const SheetProblem &problem, unsigned int cycle,
+                           std::ostream *log, double adhesion_factor)
+    {
+      SheetSystem &system = *solution.system;
+      system.adapt(solution.state);
+      if (log)
+        *log << "  adapted mesh " << cycle << ": " << system.dof_handler().get_triangulation().n_global_active_cells()
+             << " cells, " << system.n_dofs() << " unknowns\n";
+      EnergyMinimizer minimizer(system, problem.newton, log, make_hessian_solvers(problem.solver, system));
+      const MinimizerReport report = minimizer.minimize(solution.state, LoadLevel(1.0, adhesion_factor), 0.0);
+      LoadPathReport &path = solution.path;
+      path.newton_iterations += report.iterations;
+      if (report.converged)
+        {
+          path.steps.push_back({1.0, report});
+          return;
+        }
+      path.converged = false;
+      path.message   = "Newton did not reach a stable state on adapted mesh " + std::to_string(cycle) + " (" +
+                     report.message +
+                     "). The state of the previous mesh did not carry over; try fewer Mesh adaptation/Cycles, a "
+                     "smaller Refined error share, or a finer uniform start (Domain/Global refinements).";
+    }
+  } // namespace
+
   SheetSolution solve_sheet_problem(const SheetProblem &problem, MPI_Comm comm, std::ostream *log,
                                     double adhesion_factor)
   {
+    dealii::Timer timer;
     SheetSolution solution;
     solution.system = std::make_unique<SheetSystem>(problem.model, problem.domain, comm);
     if (log)
       *log << "  solving: " << solution.system->dof_handler().get_triangulation().n_global_active_cells() << " cells, "
            << solution.system->n_dofs() << " unknowns, Q" << problem.model.discretization.degree << ", "
            << dealii::Utilities::MPI::n_mpi_processes(comm) << " MPI rank(s)\n";
-    EnergyMinimizer minimizer(*solution.system, problem.newton, log,
-                              make_hessian_solvers(problem.solver, *solution.system));
-    solution.state = initial_state(*solution.system, problem);
-    solution.path  = follow_load_path(minimizer, solution.state, problem.stepping, log, adhesion_factor);
+    {
+      EnergyMinimizer minimizer(*solution.system, problem.newton, log,
+                                make_hessian_solvers(problem.solver, *solution.system));
+      solution.state = initial_state(*solution.system, problem);
+      solution.path  = follow_load_path(minimizer, solution.state, problem.stepping, log, adhesion_factor);
+    }
+    const unsigned int cycles = problem.adaptation.cycles;
+    unsigned int       newton = 0;
+    for (unsigned int cycle = 0; solution.path.converged; ++cycle)
+      {
+        const double error = cycles > 0 ? estimate_and_mark(solution, problem, adhesion_factor, cycle < cycles) : 0.0;
+        solution.meshes.push_back(describe_mesh(*solution.system, solution.path.newton_iterations - newton, error));
+        newton = solution.path.newton_iterations;
+        if (cycle == cycles)
+          break;
+        adapt_and_resolve(solution, problem, cycle + 1, log, adhesion_factor);
+      }
+    if (cycles > 0)
+      solution.path.wall_time = timer.wall_time();
     return solution;
   }
 } // namespace nappe

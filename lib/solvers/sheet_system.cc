@@ -1,4 +1,5 @@
 #include <deal.II/base/quadrature_lib.h>
+#include <deal.II/distributed/solution_transfer.h>
 #include <deal.II/dofs/dof_tools.h>
 #include <deal.II/fe/fe_interface_values.h>
 #include <deal.II/fe/fe_q.h>
@@ -28,8 +29,8 @@ namespace nappe
 
     bool supports_deflection(const EdgeCondition &e) { return e.deflection != DeflectionCondition::free; }
 
-    /// The mesh vertex nearest to @p target among those passing @p accept, agreed on by all ranks
-    /// (ties broken by the smaller x, then y). Throws if no rank has such a vertex.
+    /// The mesh vertex nearest to @p target among those passing @p accept(cell, vertex), agreed on by all
+    /// ranks (ties broken by the smaller x, then y). Throws if no rank has such a vertex.
     template <class Accept>
     Point<2> agreed_vertex(const DoFHandler<2> &dofs, const Point<2> &target, Accept &&accept, MPI_Comm comm)
     {
@@ -38,7 +39,7 @@ namespace nappe
       for (const auto &cell : dofs.active_cell_iterators())
         if (cell->is_locally_owned())
           for (const unsigned int v : cell->vertex_indices())
-            if (accept(cell->vertex(v)) && cell->vertex(v).distance(target) < best)
+            if (accept(cell, v) && cell->vertex(v).distance(target) < best)
               {
                 best       = cell->vertex(v).distance(target);
                 best_point = cell->vertex(v);
@@ -179,6 +180,7 @@ namespace nappe
   {
     constraints_.clear();
     constraints_.reinit(relevant_dofs_);
+    DoFTools::make_hanging_node_constraints(dof_handler_, constraints_);
     if (domain_.periodic)
       {
         const auto [a1, a2] = domain_.lattice_vectors();
@@ -228,10 +230,18 @@ namespace nappe
                     constraints_.add_line(dof);
                 }
     };
-    auto anywhere = [](const Point<2> &) { return true; };
+    // A hanging vertex of an adapted mesh (or one already held by an edge) cannot carry a pin.
+    auto free_for = [&](std::vector<unsigned int> components) {
+      return [this, components](const auto &cell, unsigned int v) {
+        for (const unsigned int c : components)
+          if (constraints_.is_constrained(cell->vertex_dof_index(v, c)))
+            return false;
+        return true;
+      };
+    };
     if (!any_fixed)
       {
-        const Point<2> anchor = agreed_vertex(dof_handler_, center, anywhere, comm_);
+        const Point<2> anchor = agreed_vertex(dof_handler_, center, free_for({0, 1}), comm_);
         pin(anchor, {0, 1});
         if (!domain_.periodic)
           {
@@ -242,17 +252,20 @@ namespace nappe
             // An unstructured mesh file may have no vertex on that line; any vertex to the right
             // of the anchor also fixes the rotation.
             const bool     unstructured = domain_.shape == SheetDomain::Shape::mesh_file;
+            const auto     free_y       = free_for({1});
             const Point<2> second       = agreed_vertex(
               dof_handler_, far,
-              [&](const Point<2> &x) {
-                return (unstructured || std::abs(x[1] - anchor[1]) < tol) && x[0] > anchor[0] + tol;
+              [&](const auto &cell, unsigned int v) {
+                const Point<2> &x = cell->vertex(v);
+                return (unstructured || std::abs(x[1] - anchor[1]) < tol) && x[0] > anchor[0] + tol &&
+                       free_y(cell, v);
               },
               comm_);
             pin(second, {1});
           }
       }
     if (!any_support && !model_.substrate)
-      pin(agreed_vertex(dof_handler_, center, anywhere, comm_), {2});
+      pin(agreed_vertex(dof_handler_, center, free_for({2}), comm_), {2});
   }
 
   void SheetSystem::setup_sparsity()
@@ -270,6 +283,8 @@ namespace nappe
             if (cell->at_boundary(f) && !cell->has_periodic_neighbor(f))
               continue;
             const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
+            if (neighbor->has_children())
+              continue; // its children couple to this cell from their side
             cell->get_dof_indices(here);
             neighbor->get_dof_indices(there);
             coupled.clear();
@@ -283,6 +298,36 @@ namespace nappe
           }
     SparsityTools::distribute_sparsity_pattern(dsp, owned_dofs_, comm_, relevant_dofs_);
     hessian_.reinit(owned_dofs_, owned_dofs_, dsp, comm_);
+  }
+
+  void SheetSystem::adapt(Vector &state)
+  {
+    Vector ghosted = make_ghosted_vector();
+    ghosted        = state;
+    parallel::distributed::SolutionTransfer<2, Vector> transfer(dof_handler_);
+    tria_.prepare_coarsening_and_refinement();
+    transfer.prepare_for_coarsening_and_refinement(ghosted);
+    tria_.execute_coarsening_and_refinement();
+    setup_dofs();
+    state = make_owned_vector();
+    transfer.interpolate(state);
+    setup_constraints();
+    constraints_.distribute(state);
+    setup_sparsity();
+    point_loads_.clear();
+    locate_point_loads();
+  }
+
+  bool SheetSystem::uniform_mesh() const
+  {
+    int lowest = std::numeric_limits<int>::max(), highest = 0;
+    for (const auto &cell : tria_.active_cell_iterators())
+      if (cell->is_locally_owned())
+        {
+          lowest  = std::min(lowest, cell->level());
+          highest = std::max(highest, cell->level());
+        }
+    return Utilities::MPI::min(lowest, comm_) == Utilities::MPI::max(highest, comm_);
   }
 
   // The w shape functions at @p p on exactly one rank (the lowest that owns a cell containing it);

@@ -8,6 +8,8 @@
 #include <nappe/physics/fvk_kinematics.h>
 #include <nappe/solvers/sheet_system.h>
 
+#include <tuple>
+
 namespace nappe
 {
   using namespace dealii;
@@ -160,7 +162,8 @@ namespace nappe
   }
 
   // The C0 interior penalty terms: each interior or periodic edge once (by the cell with the smaller
-  // id, or the smaller subdomain across ranks), and the clamped boundary edges.
+  // id, or the smaller subdomain across ranks; between cells of different levels by the finer one,
+  // sub-edge by sub-edge), and the clamped boundary edges.
   void SheetSystem::assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian,
                                    Vector *magnitude, EnergyParts &parts) const
   {
@@ -198,16 +201,23 @@ namespace nappe
               }
             else
               {
+                const bool periodic = cell->at_boundary(f);
                 const auto neighbor = cell->neighbor_or_periodic_neighbor(f);
-                AssertThrow(neighbor->is_active() && neighbor->level() == cell->level(),
-                            ExcMessage("The interior penalty assembly expects a conforming mesh."));
-                if (neighbor->is_locally_owned() ? !(cell->id() < neighbor->id())
-                                                 : cell->subdomain_id() > neighbor->subdomain_id())
-                  continue;
-                const unsigned int nf =
-                  cell->at_boundary(f) ? cell->periodic_neighbor_face_no(f) : cell->neighbor_face_no(f);
+                if (neighbor->has_children())
+                  continue; // each finer neighbour integrates its part of the edge
+                unsigned int nf = 0, nsf = numbers::invalid_unsigned_int;
+                if (neighbor->level() < cell->level())
+                  std::tie(nf, nsf) = periodic ? cell->periodic_neighbor_of_coarser_periodic_neighbor(f)
+                                               : cell->neighbor_of_coarser_neighbor(f);
+                else
+                  {
+                    if (neighbor->is_locally_owned() ? !(cell->id() < neighbor->id())
+                                                     : cell->subdomain_id() > neighbor->subdomain_id())
+                      continue;
+                    nf = periodic ? cell->periodic_neighbor_face_no(f) : cell->neighbor_face_no(f);
+                  }
                 h = std::min(h, neighbor->measure() / neighbor->face(nf)->measure());
-                fiv.reinit(cell, f, numbers::invalid_unsigned_int, neighbor, nf, numbers::invalid_unsigned_int);
+                fiv.reinit(cell, f, numbers::invalid_unsigned_int, neighbor, nf, nsf);
               }
 
             // Only the w interface dofs enter the edge terms.

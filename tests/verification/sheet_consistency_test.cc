@@ -162,10 +162,30 @@ namespace
       }
   }
 
-  /// Taylor tests of energy → residual → Hessian at a nonlinear state, and Hessian symmetry.
-  void check_consistency(const SheetModel &model, const SheetDomain &domain)
+  /// Refines the cells whose centre lies left of x = 0.3·L_x, twice (an adapted mesh: hanging nodes,
+  /// edges between cells of different levels, on a periodic cell also across the periodic edge x = 0).
+  void refine_left_strip(SheetSystem &system, const SheetDomain &domain)
+  {
+    for (unsigned int pass = 0; pass < 2; ++pass)
+      {
+        for (const auto &cell : system.mesh().active_cell_iterators())
+          if (cell->is_locally_owned() && cell->center()[0] < 0.3 * domain.length_x)
+            cell->set_refine_flag();
+        Vector state = system.make_owned_vector();
+        system.adapt(state);
+      }
+  }
+
+  /// Taylor tests of energy → residual → Hessian at a nonlinear state, and Hessian symmetry; on an
+  /// adapted mesh (refine_left_strip) if @p adapted.
+  void check_consistency(const SheetModel &model, const SheetDomain &domain, bool adapted = false)
   {
     SheetSystem  system(model, domain, MPI_COMM_WORLD);
+    if (adapted)
+      {
+        refine_left_strip(system, domain);
+        ASSERT_FALSE(system.uniform_mesh());
+      }
     const double L = domain.length_x;
     const Vector U = feasible_field(system, SmoothField(domain, 0.01 * L, 0.05 * L, 0.3));
     const Vector V = feasible_field(system, SmoothField(domain, 0.01 * L, 0.05 * L, 2.1));
@@ -229,6 +249,25 @@ TEST(SheetConsistency, ResidualAndHessianAreDerivativesWithSubstrateAndPointLoad
   model.loads.point_loads.push_back({domain.center(), -0.01});
   model.loads.eigenstrain[0][0] = model.loads.eigenstrain[1][1] = 0.003;
   check_consistency(model, domain);
+}
+
+// An adapted mesh: edges between cells of different levels (sub-edge terms, hanging nodes), on a
+// clamped rectangle and on a periodic cell refined along one periodic edge, with a substrate.
+TEST(SheetConsistency, ResidualAndHessianAreDerivativesOnAdaptedMeshes)
+{
+  SheetModel clamped;
+  clamped.material       = test_material();
+  clamped.edges[0]       = {DeflectionCondition::clamped, InPlaneCondition::fixed};
+  clamped.edges[2]       = {DeflectionCondition::clamped, InPlaneCondition::free};
+  clamped.loads.pressure = 0.1;
+  check_consistency(clamped, rectangle(false), true);
+
+  const SheetDomain periodic = rectangle(true);
+  SheetModel        on_substrate;
+  on_substrate.material  = test_material();
+  on_substrate.substrate = std::make_shared<SpringToTopography>(periodic, 0.5, 20.0, 0.03);
+  on_substrate.loads.mean_strain[0][1] = 0.004;
+  check_consistency(on_substrate, periodic, true);
 }
 
 // The rhombic (hexagonal) unit cell: skewed cells and periodic faces along a2.

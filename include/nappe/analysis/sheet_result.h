@@ -24,6 +24,8 @@ namespace nappe
     std::vector<std::string> warnings;
     unsigned long long       cells = 0, unknowns = 0;
     unsigned int             ranks = 1;
+    /// The meshes of the solve (more than one when the mesh was adapted), the last the result's.
+    std::vector<MeshCycle> meshes;
   };
 
   /// Measures a solution (energy, extremes, conformation, warnings) at full load. Collective.

@@ -131,4 +131,11 @@ namespace nappe
   AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
                                     const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
                                     std::ostream *log = nullptr);
+
+  /**
+   * Why an adhesion path refuses a problem with mesh adaptation cycles: paths run on the uniform
+   * mesh of Domain/Global refinements (a mesh adapted to one state would be wrong for the others
+   * along the path, and the jump detection compares states on one mesh).
+   */
+  std::string adaptive_paths_refused(unsigned int cycles);
 } // namespace nappe

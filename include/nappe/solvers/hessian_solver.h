@@ -142,9 +142,10 @@ namespace nappe
    * @p settings with both names resolved for a problem of @p unknowns: an "automatic" linear solver is
    * "multilevel CG" from multilevel_crossover_unknowns on (or when the certificate is "multilevel
    * LOBPCG"), else "direct LDLT"; an "automatic" certificate is "LDLT inertia" with the direct solver
-   * and "multilevel LOBPCG" with the multilevel one.
+   * and "multilevel LOBPCG" with the multilevel one. On an adapted mesh (@p adapted_mesh) "automatic"
+   * is always the direct solver: the multilevel one coarsens by whole uniform refinements.
    */
-  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns);
+  SolverSettings resolved(const SolverSettings &settings, unsigned long long unknowns, bool adapted_mesh = false);
 
   /// Throws, naming the entry, if a name is unknown or the certificate does not go with the linear solver.
   void check_solver_settings(const SolverSettings &settings);

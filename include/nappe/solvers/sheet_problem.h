@@ -5,6 +5,7 @@
 #include <nappe/solvers/energy_minimizer.h>
 #include <nappe/solvers/hessian_solver.h>
 #include <nappe/solvers/load_stepping.h>
+#include <nappe/solvers/mesh_adaptation.h>
 
 #include <memory>
 #include <ostream>
@@ -31,6 +32,7 @@ namespace nappe
     LoadSteppingSettings stepping;
     MinimizerSettings    newton;
     SolverSettings       solver;
+    MeshAdaptationSettings adaptation;
     StartProtocol        start = StartProtocol::laid_down;
     /// Laid down: height of the flat sheet above the equilibrium gap over the topography's highest
     /// mesh vertex [m].
@@ -50,11 +52,16 @@ namespace nappe
     std::unique_ptr<SheetSystem> system;
     Vector                       state;
     LoadPathReport               path;
+    /// The meshes the solve ran on, the first the domain's uniform one (one entry without adaptation).
+    std::vector<MeshCycle> meshes;
   };
 
   /**
    * Builds the system, starts from initial_state() and follows the load path λ: 0 → 1 at the
-   * adhesion factor @p adhesion_factor. The state is a result only if path.converged.
+   * adhesion factor @p adhesion_factor; then, for each adaptation cycle, estimates the error, adapts the
+   * mesh (carrying the state over) and minimises again at full load. The state is a result only if
+   * path.converged. Adaptation needs the direct linear solver ('automatic' chooses it): the multilevel
+   * one coarsens by whole uniform refinements.
    */
   SheetSolution solve_sheet_problem(const SheetProblem &problem, MPI_Comm comm, std::ostream *log = nullptr,
                                     double adhesion_factor = 1.0);

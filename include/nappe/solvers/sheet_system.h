@@ -38,7 +38,9 @@ namespace nappe
    * Bending uses the symmetric C0 interior penalty method (Engel et al., Comput. Methods Appl.
    * Mech. Engrg. 191, 3669, 2002; Brenner & Sung, J. Sci. Comput. 22, 83, 2005) with the energy
    *   Σ_K ½∫M:κ − Σ_e ∫{M_nn}[∂_n w] + Σ_e ½∫η p(p+1) D/h_e [∂_n w]²,
-   * over interior and periodic edges and clamped boundary edges.
+   * over interior and periodic edges and clamped boundary edges. On an adapted mesh an edge between
+   * a cell and its finer neighbours is integrated once per sub-edge, from the finer side, and w is
+   * kept continuous at hanging nodes by constraints.
    *
    * The state vector holds (ũ, w); the total in-plane displacement is u = λE·x + ũ. All constraints
    * are homogeneous, so a state that satisfies them stays feasible under constrained updates.
@@ -54,6 +56,8 @@ namespace nappe
     /// Number of degrees of freedom (all ranks).
     dealii::types::global_dof_index n_dofs() const;
     const dealii::DoFHandler<2> &dof_handler() const { return dof_handler_; }
+    /// The distributed mesh, on which mesh adaptation sets refine and coarsen flags before adapt().
+    dealii::parallel::distributed::Triangulation<2> &mesh() { return tria_; }
     const dealii::FESystem<2> &finite_element() const { return fe_; }
     const dealii::Mapping<2> &mapping() const { return *mapping_; }
     const dealii::AffineConstraints<double> &constraints() const { return constraints_; }
@@ -92,6 +96,17 @@ namespace nappe
      * the model does not know: then only the relative tolerances apply.
      */
     double physical_force_scale(const LoadLevel &level) const;
+
+    /**
+     * Refines and coarsens the cells flagged on mesh() (after p4est's 2:1 balance, also across
+     * periodic edges), carries @p state (owned) to the new mesh by interpolation, and rebuilds the
+     * dofs, the constraints (with hanging-node constraints), the Hessian's sparsity and the point
+     * loads. Objects that keep references into the old system (minimisers, Hessian solvers) must be
+     * rebuilt. Collective.
+     */
+    void adapt(Vector &state);
+    /// Whether every cell has the same refinement level (false after adapt() refined part of the mesh).
+    bool uniform_mesh() const;
 
     /// w of @p state (ghosted) at a point [m]; the same on every rank.
     double deflection_at(const Vector &state, const dealii::Point<2> &p) const;
