@@ -50,6 +50,8 @@ namespace nappe
       json.value("complete", p.complete);
       json.value("message", p.message);
       json.quantity("wall_time", p.wall_time, "s");
+      json.value("mesh_adaptations", p.mesh_adaptations);
+      json.value("largest_unknowns", static_cast<long long>(p.largest_unknowns));
       json.end_object();
     }
 
@@ -233,6 +235,9 @@ namespace nappe
       {
         out << "  " << (p->lowering ? "Lowering" : "Raising ") << " path: " << p->points.size() << " states, "
             << p->solves << " minimisations, " << p->wall_time << " s";
+        if (p->mesh_adaptations > 0)
+          out << ", mesh adapted " << p->mesh_adaptations << " time(s), at most " << p->largest_unknowns
+              << " unknowns";
         out << (p->complete ? "\n" : "; stopped early: " + p->message + "\n");
       }
   }

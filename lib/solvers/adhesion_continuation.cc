@@ -58,9 +58,9 @@ namespace nappe::internal
     const double target    = settings_.target_fraction;
     const auto   ln_distance = [](double a, double b) { return std::abs(std::log(b / a)); };
     const auto   anchor_at   = [&](const Vector &u, double g, AdhesionPathPoint &point) {
-      Vector tangent = path_tangent(minimizer_, u, level(g), PathParameter::adhesion);
+      Vector tangent = path_tangent(*minimizer_, u, level(g), PathParameter::adhesion);
       tangent /= problem_gamma(); // dU/dΓ = (dU/dc)/Γ_problem
-      const LowestEigenpair mu = minimizer_.lowest_curvature();
+      const LowestEigenpair mu = minimizer_->lowest_curvature();
       point.lowest_curvature   = mu.available ? mu.value : -1.0;
       const double rate = largest_entry(tangent, w_dofs_, system_.communicator()) * g;
       return Anchor{g, u, tangent, point.conformed_fraction, point.lowest_curvature, rate};
@@ -109,6 +109,24 @@ namespace nappe::internal
     double step = first_step(lo), last_width = std::numeric_limits<double>::max();
     bool   bisect = false;
     Vector predicted = state, corrected = state;
+    // On an adaptive mesh, refine where the front and the strain peaks of the new anchor lie, once no
+    // bracket holds states of the present mesh; false if the path must stop.
+    const auto refine_at_anchor = [&]() {
+      if (hi || !beyond.empty())
+        return true;
+      Vector          u = lo.state;
+      const Remeshing r = refine_and_resolve(path, u, lo.gamma, false);
+      if (!r.changed || !r.stayed)
+        return r.stayed;
+      AdhesionPathPoint point = measure(u, lo.gamma, path.points.back().newton_iterations + r.newton_iterations);
+      point.after_jump        = path.points.back().after_jump;
+      path.points.back()      = point;
+      lo                      = anchor_at(u, lo.gamma, path.points.back());
+      predicted = corrected = lo.state;
+      return true;
+    };
+    if (!refine_at_anchor())
+      return;
 
     while (ln_distance(lo.gamma, range_end_) > 1e-12)
       {
@@ -153,6 +171,8 @@ namespace nappe::internal
                 hi = next_beyond(); // past a crossing, the branch may still end where a farther trial left it
                 last_width = std::numeric_limits<double>::max();
                 bisect     = false;
+                if (!refine_at_anchor())
+                  break;
                 progress(path, lo.gamma);
                 continue;
               }
@@ -202,13 +222,33 @@ namespace nappe::internal
                  std::abs(fraction_of(u, trial_gamma) - predicted_fraction) <=
                    4.0 * settings_.largest_fraction_change;
         };
-        const MinimizerReport report = minimizer_.minimize(corrected, level(trial_gamma), 0.0,
-                                                           confirming ? EnergyMinimizer::IterateCheck() : near_branch);
+        MinimizerReport report = minimizer_->minimize(corrected, level(trial_gamma), 0.0,
+                                                      confirming ? EnergyMinimizer::IterateCheck() : near_branch);
         ++path.solves;
         Trial t;
         t.gamma      = trial_gamma;
         t.from_gamma = lo.gamma;
         double share = 0.0; // corrector distance as a share of what counts as leaving the branch
+        const auto off_branch = [&](const Vector &u) {
+          return max_deflection_change(u, predicted) > settings_.largest_deflection_change * h0 ||
+                 std::abs(fraction_of(u, trial_gamma) - predicted_fraction) > settings_.largest_fraction_change;
+        };
+        if (confirming && !report.converged && !report.stopped && problem_.adaptation.cycles > 0 &&
+            off_branch(corrected))
+          {
+            // A jump whose end the mesh does not resolve: on an adaptive mesh, finish it on a mesh
+            // adapted to where the sheet is going (the states of the old mesh are not needed past it).
+            report = finish_on_adapted_meshes(path, corrected, trial_gamma, report);
+            if (report.converged)
+              {
+                t.failed  = false;
+                t.point   = measure(corrected, trial_gamma, report.iterations);
+                t.state   = corrected;
+                beyond.clear();
+                hi = std::move(t);
+                continue;
+              }
+          }
         if (report.converged)
           {
             t.failed = false;
@@ -242,6 +282,8 @@ namespace nappe::internal
             if (!hi)
               step = std::clamp(step * continuation::step_factor(report.iterations, share), tolerance,
                                 settings_.largest_step);
+            if (!refine_at_anchor())
+              break;
             progress(path, lo.gamma);
             continue;
           }

@@ -1,6 +1,7 @@
 #include <deal.II/base/timer.h>
 
 #include <nappe/solvers/load_stepping.h>
+#include <nappe/solvers/mesh_adaptation.h>
 #include <nappe/solvers/path_tangent.h>
 
 #include "path_follower.h"
@@ -41,10 +42,94 @@ namespace nappe
       , settings_(s)
       , measure_(measure)
       , system_(p.model, p.domain, comm)
-      , minimizer_(system_, corrector_settings(p, s), nullptr, make_hessian_solvers(p.solver, system_))
+      , minimizer_(make_minimizer())
       , log_(log)
       , w_dofs_(deflection_dofs(system_))
     {
+    }
+
+    std::unique_ptr<EnergyMinimizer> PathFollower::make_minimizer()
+    {
+      return std::make_unique<EnergyMinimizer>(system_, corrector_settings(problem_, settings_), nullptr,
+                                               make_hessian_solvers(problem_.solver, system_));
+    }
+
+    bool PathFollower::adapt_mesh(AdhesionPath &path, Vector &state, double gamma, bool whole)
+    {
+      const unsigned int cycles = problem_.adaptation.cycles, uniform = problem_.domain.global_refinements;
+      if (cycles == 0)
+        return false;
+      Vector ghosted = system_.make_ghosted_vector();
+      ghosted        = state;
+      const CellErrorIndicators indicators = estimate_cell_errors(system_, ghosted, level(gamma));
+      mark_cells(system_, indicators, problem_.adaptation, uniform, uniform + cycles, whole);
+      // Along the path, coarsening alone is not worth a new minimisation.
+      if (!any_cell_marked(system_, !whole))
+        {
+          for (const auto &cell : system_.mesh().active_cell_iterators())
+            cell->clear_coarsen_flag();
+          return false;
+        }
+      system_.adapt(state);
+      minimizer_ = make_minimizer();
+      w_dofs_    = deflection_dofs(system_);
+      ++path.mesh_adaptations;
+      path.largest_unknowns = std::max<unsigned long long>(path.largest_unknowns, system_.n_dofs());
+      std::ostringstream line;
+      line << std::setprecision(4) << "  mesh adapted at Γ = " << gamma << " J/m²: "
+           << system_.dof_handler().get_triangulation().n_global_active_cells() << " cells, " << system_.n_dofs()
+           << " unknowns\n";
+      say(line.str());
+      return true;
+    }
+
+    MinimizerReport PathFollower::finish_on_adapted_meshes(AdhesionPath &path, Vector &state, double gamma,
+                                                           MinimizerReport report)
+    {
+      for (unsigned int cycle = 0; cycle < problem_.adaptation.cycles && !report.converged; ++cycle)
+        {
+          if (!adapt_mesh(path, state, gamma, false))
+            break;
+          ++path.solves;
+          report = minimizer_->minimize(state, level(gamma), 0.0);
+        }
+      return report;
+    }
+
+    PathFollower::Remeshing PathFollower::refine_and_resolve(AdhesionPath &path, Vector &state, double gamma,
+                                                             bool whole)
+    {
+      Remeshing r;
+      const double before = fraction_of(state, gamma);
+      r.changed           = adapt_mesh(path, state, gamma, whole);
+      if (!r.changed)
+        return r;
+      ++path.solves;
+      const Vector          carried = state;
+      const MinimizerReport report  = minimizer_->minimize(state, level(gamma), 0.0);
+      r.newton_iterations           = report.iterations;
+      std::ostringstream s;
+      s << std::setprecision(4) << "on the mesh refined at Γ = " << gamma << " J/m² ("
+        << system_.dof_handler().get_triangulation().n_global_active_cells() << " cells, " << system_.n_dofs()
+        << " unknowns) ";
+      if (!report.converged)
+        s << "no stable state was found again (last residual " << std::scientific << std::setprecision(3)
+          << report.residual << " N: " << report.message << ")";
+      else if (whole)
+        return r; // the start: there is no branch yet to stay on
+      else
+        {
+          const double after = fraction_of(state, gamma);
+          if (std::abs(after - before) <= settings_.largest_fraction_change &&
+              max_deflection_change(state, carried) <= settings_.largest_deflection_change *
+                                                         adhesion_.law().equilibrium_gap())
+            return r;
+          s << "the state left the branch it was on (conformed fraction " << before << " → " << after << ")";
+        }
+      r.stayed     = false;
+      path.message = s.str() + "; the coarser mesh did not resolve it: start from a finer mesh (Domain/Global "
+                               "refinements) or with more Mesh adaptation/Cycles";
+      return r;
     }
 
     AdhesionPathPoint PathFollower::measure(const Vector &owned, double gamma, unsigned int iterations) const
@@ -113,6 +198,7 @@ namespace nappe
       AdhesionPath path;
       path.value_names = measure_.names;
       path.lowering    = start == StartProtocol::grown_conformal;
+      path.largest_unknowns = system_.n_dofs();
       range_start_ = path.lowering ? settings_.highest_work_of_adhesion : settings_.lowest_work_of_adhesion;
       range_end_   = path.lowering ? settings_.lowest_work_of_adhesion : settings_.highest_work_of_adhesion;
       double gamma = range_start_;
@@ -126,7 +212,7 @@ namespace nappe
       start_problem.start        = start;
       Vector state               = initial_state(system_, start_problem);
       const LoadPathReport load =
-        follow_load_path(minimizer_, state, problem_.stepping, nullptr, level(gamma).adhesion);
+        follow_load_path(*minimizer_, state, problem_.stepping, nullptr, level(gamma).adhesion);
       path.solves += load.steps.size();
       if (!load.converged)
         {
@@ -134,13 +220,27 @@ namespace nappe
           path.wall_time = timer_.wall_time();
           return path;
         }
-      path.points.push_back(measure(state, gamma, load.newton_iterations));
+      unsigned int newton = load.newton_iterations;
+      for (unsigned int cycle = 0; cycle < problem_.adaptation.cycles; ++cycle)
+        {
+          const Remeshing r = refine_and_resolve(path, state, gamma, true);
+          newton += r.newton_iterations;
+          if (!r.stayed)
+            {
+              path.wall_time = timer_.wall_time();
+              return path;
+            }
+          if (!r.changed)
+            break;
+        }
+      path.points.push_back(measure(state, gamma, newton));
       if (settings_.method == ContinuationMethod::predictor_corrector)
         follow_by_continuation(path, state, gamma);
       else
         follow_by_bisection(path, state, gamma);
       path.complete  = path.message.empty();
       path.wall_time = timer_.wall_time();
+
       return path;
     }
 
@@ -165,7 +265,7 @@ namespace nappe
           const double next = next_gamma(gamma, step, path.lowering);
           const bool   at_tolerance = std::abs(std::log(next / gamma)) <= settings_.relative_tolerance * 1.000001;
           trial                        = state;
-          const MinimizerReport report = minimizer_.minimize(trial, level(next), 0.0);
+          const MinimizerReport report = minimizer_->minimize(trial, level(next), 0.0);
           if (!report.converged)
             {
               if (at_tolerance)
@@ -224,19 +324,14 @@ namespace nappe
                                    "Largest step."));
   }
 
-  std::string adaptive_paths_refused(unsigned int cycles)
-  {
-    return "Mesh adaptation/Cycles = " + std::to_string(cycles) +
-           ": adhesion limits, transitions and threshold sweeps follow the work of adhesion on the uniform mesh "
-           "(Domain/Global refinements), not on an adapted one; set Mesh adaptation/Cycles = 0 for them (nappe-solve "
-           "adapts its mesh).";
-  }
-
   AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
                                     const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
                                     std::ostream *log)
   {
-    AssertThrow(problem.adaptation.cycles == 0, dealii::ExcMessage(adaptive_paths_refused(problem.adaptation.cycles)));
+    AssertThrow(problem.adaptation.cycles == 0 || settings.method == ContinuationMethod::predictor_corrector,
+                dealii::ExcMessage("Mesh adaptation/Cycles = " + std::to_string(problem.adaptation.cycles) +
+                                   ": the bisection continuation runs on a fixed mesh; use the predictor-corrector "
+                                   "method or no mesh adaptation."));
     check_adhesion_path_settings(settings);
     internal::PathFollower follower(problem, settings, measure, comm, log);
     return follower.run(start);

@@ -86,7 +86,8 @@ namespace nappe
     std::ostringstream why;
     why << "the residual stalled at " << std::scientific << std::setprecision(3) << residual
         << " N, above a millionth of the forces this problem exerts (" << physical
-        << " N): the case is badly scaled; check the units of its entries";
+        << " N): either the case is badly scaled (check the units of its entries) or the mesh is too coarse for "
+           "the stiffness of the adhesion law where the sheet touches (refine it)";
     return why.str();
   }
 

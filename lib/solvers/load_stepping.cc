@@ -16,7 +16,7 @@ namespace nappe
       if (report.message.find("indefinite") != std::string::npos)
         return "Check the supports (Edges/Conditions) and the loads: the sheet has no stable state as modelled.";
       if (report.message.find("badly scaled") != std::string::npos)
-        return "Check the units of the entries.";
+        return "Check the units of the entries, then refine the mesh where the sheet touches.";
       if (!model.loads.any())
         return "This case has no loads, so load steps change nothing: the sheet must find its way onto the substrate "
                "in one minimisation. Try Substrate/Protocol = grown conformal, follow the work of adhesion with "

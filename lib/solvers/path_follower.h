@@ -8,6 +8,7 @@
 #include <nappe/solvers/adhesion_path.h>
 #include <nappe/solvers/energy_minimizer.h>
 
+#include <memory>
 #include <ostream>
 #include <string>
 
@@ -39,6 +40,27 @@ namespace nappe::internal
         *log_ << s << std::flush;
     }
 
+    /// Adapts the mesh to the certified @p state at Γ and carries the state over (whole: the marking
+    /// of a solve's cycles; otherwise refinement only where the adhesion front and the strain
+    /// concentrations moved, with coarsening where the sheet is smooth, and only if some cell is
+    /// refined). False, with the mesh unchanged, if nothing was to be refined.
+    bool adapt_mesh(AdhesionPath &path, Vector &state, double gamma, bool whole);
+    struct Remeshing
+    {
+      bool         changed = false;   ///< the mesh was adapted
+      bool         stayed  = true;    ///< the state was found again on the new mesh, on its branch
+      unsigned int newton_iterations = 0;
+    };
+    /// adapt_mesh(), then the state minimised again on the new mesh; if that fails or leaves the
+    /// branch the state was on, path.message says so (stayed = false).
+    Remeshing refine_and_resolve(AdhesionPath &path, Vector &state, double gamma, bool whole);
+    /// After a minimisation that did not converge (@p report), its iterate @p state having left the
+    /// branch: the sheet is going where the mesh is coarse. Adapts the mesh to the iterate and goes
+    /// on minimising, at most Cycles times. The last report; the state on the last mesh.
+    MinimizerReport finish_on_adapted_meshes(AdhesionPath &path, Vector &state, double gamma,
+                                             MinimizerReport report);
+    std::unique_ptr<EnergyMinimizer> make_minimizer();
+
     void follow_by_bisection(AdhesionPath &path, Vector &state, double gamma);
     void follow_by_continuation(AdhesionPath &path, Vector &state, double gamma);
 
@@ -47,7 +69,7 @@ namespace nappe::internal
     AdhesionPathSettings     settings_;
     const PathMeasure       &measure_;
     SheetSystem              system_;
-    EnergyMinimizer          minimizer_;
+    std::unique_ptr<EnergyMinimizer> minimizer_; ///< rebuilt when the mesh changes
     std::ostream            *log_;
     dealii::IndexSet         w_dofs_;
     dealii::Timer            timer_;

@@ -93,6 +93,8 @@ namespace nappe
     std::string                    message;          ///< why it stopped early, with what to try
     unsigned int                   solves = 0;
     double                         wall_time = 0.0; ///< [s]
+    unsigned int                   mesh_adaptations = 0; ///< meshes adapted along the path (start included)
+    unsigned long long             largest_unknowns = 0; ///< of the largest mesh the path used [-]
 
     /// The value named @p name of @p point (one of value_names); throws if there is none.
     double value(const AdhesionPathPoint &point, const std::string &name) const;
@@ -127,15 +129,17 @@ namespace nappe
    *
    * Bisection (the earlier method): warm starts from the last state, a step is halved whenever the
    * state changes by more than the limits, until it is within relative_tolerance.
+   *
+   * Adaptive meshes (problem.adaptation.cycles > 0, predictor–corrector only): the starting state is
+   * solved on meshes adapted as a solve adapts them (mark_cells()); then, at every state accepted on
+   * a branch while no bracket is open, if the adhesion front or a strain concentration has moved into
+   * cells coarser than the finest level, those cells are refined and smooth ones coarsened
+   * (mark_cells() without bulk refinement), the state is carried over and minimised again. A state
+   * that leaves its branch on the new mesh ends the path with a message. Brackets and jumps are thus
+   * always located between states on one mesh, with the front resolved at the finest level.
    */
   AdhesionPath follow_adhesion_path(const SheetProblem &problem, StartProtocol start,
                                     const AdhesionPathSettings &settings, const PathMeasure &measure, MPI_Comm comm,
                                     std::ostream *log = nullptr);
 
-  /**
-   * Why an adhesion path refuses a problem with mesh adaptation cycles: paths run on the uniform
-   * mesh of Domain/Global refinements (a mesh adapted to one state would be wrong for the others
-   * along the path, and the jump detection compares states on one mesh).
-   */
-  std::string adaptive_paths_refused(unsigned int cycles);
 } // namespace nappe

@@ -30,15 +30,20 @@ namespace nappe
   };
 
   /**
-   * Sets refine and coarsen flags on @p system's mesh: bulk marking (Dörfler, SIAM J. Numer. Anal. 33,
-   * 1106, 1996; deal.II's fixed-fraction strategy) of the volume residuals and, separately, of the
-   * edge jumps, so that the adhesion front (whose unresolved residual is orders of magnitude larger)
-   * does not hide the strain concentrations; every cell the adhesion front runs through, and every
-   * cell whose peak strain is at least strain_concentration_share of the sheet's, refined too;
-   * coarsening by the sum; no cell refined beyond @p max_level nor coarsened below
-   * @p min_level (the domain's uniform level, so the mesh never becomes coarser than it started).
-   * Collective.
+   * Sets refine and coarsen flags on @p system's mesh. With @p bulk_refinement (a solve's cycles):
+   * bulk marking (Dörfler, SIAM J. Numer. Anal. 33, 1106, 1996; deal.II's fixed-fraction strategy) of
+   * the volume residuals and, separately, of the edge jumps, so that the adhesion front (whose
+   * unresolved residual is orders of magnitude larger) does not hide the strain concentrations.
+   * Always: every cell the adhesion front runs through, and every cell whose peak strain is at least
+   * strain_concentration_share of the sheet's, refined (the features that move while a load or Γ
+   * varies, all that a path refines); coarsening by the sum; no cell refined beyond @p max_level nor
+   * coarsened below @p min_level (the domain's uniform level, so the mesh never becomes coarser than
+   * it started). Collective.
    */
   void mark_cells(SheetSystem &system, const CellErrorIndicators &indicators, const MeshAdaptationSettings &settings,
-                  unsigned int min_level, unsigned int max_level);
+                  unsigned int min_level, unsigned int max_level, bool bulk_refinement = true);
+
+  /// Whether any rank has a cell flagged for refinement (or, unless @p for_refinement, coarsening).
+  /// Collective.
+  bool any_cell_marked(const SheetSystem &system, bool for_refinement = false);
 } // namespace nappe
