@@ -15,16 +15,13 @@
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/analysis/adhesion_transitions.h>
 #include <nappe/analysis/state_summary.h>
-#include <nappe/geometry/lattice_array.h>
-#include <nappe/geometry/radial_features.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/physics/adhesion_potential.h>
-#include <nappe/physics/material_catalogue.h>
-#include <nappe/physics/vdw_93_law.h>
 
 #include <deal.II/base/mpi.h>
 
 #include <gtest/gtest.h>
+
+#include "common/mos2_cells.h"
 
 #include <cmath>
 #include <cstdlib>
@@ -38,42 +35,23 @@ namespace
 
   bool logging() { return std::getenv("NAPPE_TEST_LOG") && dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0; }
 
-  SheetProblem laid_on(std::shared_ptr<const Topography> topography, double cell)
-  {
-    const MaterialCatalogue catalogue;
-    SheetProblem            p;
-    p.model.material        = catalogue.material("MoS2");
-    p.domain.length_x       = p.domain.length_y = cell;
-    p.domain.coarse_cells_x = p.domain.coarse_cells_y = 4;
-    p.domain.periodic                                 = true;
-    p.model.substrate = std::make_shared<AdhesionPotential>(topography, std::make_shared<Vdw93Law>(0.22, 0.5 * nm),
-                                                            GapMeasure::normal);
-    p.stepping.load_steps = 1;
-    return p;
-  }
-
-  SheetProblem pillar_cell()
-  {
-    const double pitch  = 60 * nm;
-    auto         pillar = std::make_shared<Pillar>(5 * nm, 12 * nm, 2 * nm, 2 * nm, 70.0 * M_PI / 180.0);
-    return laid_on(LatticeArray::square(pillar, pitch), pitch);
-  }
-
   SheetProblem egg_carton_cell()
   {
     const double wavelength = 30 * nm;
-    return laid_on(std::make_shared<EggCarton>(2 * nm, wavelength), wavelength);
+    SheetProblem p = test_support::mos2_periodic_cell(std::make_shared<EggCarton>(2 * nm, wavelength), wavelength);
+    p.start        = StartProtocol::grown_conformal;
+    return p;
   }
 
   // Adaptive meshes start from the coarse cells and adapt twice; the uniform mesh is refined twice.
   const unsigned int adaptation_cycles = 2;
 
-  AdhesionPath follow(SheetProblem problem, unsigned int refinements, unsigned int cycles, StartProtocol start,
+  AdhesionPath follow(SheetProblem problem, unsigned int refinements, unsigned int cycles,
                       const AdhesionPathSettings &settings)
   {
     problem.domain.global_refinements = refinements;
     problem.adaptation.cycles         = cycles;
-    AdhesionPath path = follow_adhesion_path(problem, start, settings, summary_path_measure(problem.model),
+    AdhesionPath path = follow_adhesion_path(problem, problem.start, settings, summary_path_measure(problem.model),
                                              MPI_COMM_WORLD, logging() ? &std::cout : nullptr);
     if (logging())
       std::cout << "    refinements " << refinements << ", cycles " << cycles << ": " << path.largest_unknowns
@@ -90,12 +68,37 @@ namespace
                   << t.fraction_before << " → " << t.fraction_after << "\n";
   }
 
-  /// The mesh was adapted at the start and again along the path, never beyond the finest level.
-  void expect_adapted_along_the_path(const AdhesionPath &adaptive, const AdhesionPath &uniform)
+  /// One path on the uniform mesh at the finest level and on the adaptive mesh, with their jumps.
+  struct PathPair
   {
-    EXPECT_EQ(uniform.mesh_adaptations, 0u);
-    EXPECT_GT(adaptive.mesh_adaptations, adaptation_cycles);
-    EXPECT_LE(adaptive.largest_unknowns, uniform.largest_unknowns);
+    AdhesionPath                    uniform, adaptive;
+    std::vector<AdhesionTransition> on_uniform, on_adapted;
+  };
+
+  /// Follows both paths; fails the test unless both are complete and the adaptive mesh was adapted
+  /// at the start and again along the path, never beyond the finest level.
+  PathPair follow_both(const SheetProblem &problem, const AdhesionPathSettings &settings)
+  {
+    PathPair p;
+    p.uniform  = follow(problem, adaptation_cycles, 0, settings);
+    p.adaptive = follow(problem, 0, adaptation_cycles, settings);
+    EXPECT_TRUE(p.uniform.complete) << p.uniform.message;
+    EXPECT_TRUE(p.adaptive.complete) << p.adaptive.message;
+    p.on_uniform = find_transitions(p.uniform, settings.target_fraction);
+    p.on_adapted = find_transitions(p.adaptive, settings.target_fraction);
+    log_transitions(p.on_uniform);
+    log_transitions(p.on_adapted);
+    EXPECT_EQ(p.uniform.mesh_adaptations, 0u);
+    EXPECT_GT(p.adaptive.mesh_adaptations, adaptation_cycles);
+    EXPECT_LE(p.adaptive.largest_unknowns, p.uniform.largest_unknowns);
+    return p;
+  }
+
+  void expect_same_transition(const AdhesionTransition &found, const AdhesionTransition &reference)
+  {
+    EXPECT_NEAR(std::log(found.gamma_upper / reference.gamma_upper), 0.0, 0.01);
+    EXPECT_NEAR(found.fraction_before, reference.fraction_before, 0.01);
+    EXPECT_NEAR(found.fraction_after, reference.fraction_after, 0.01);
   }
 
   const AdhesionTransition *first_of_kind(const std::vector<AdhesionTransition> &transitions, const std::string &kind)
@@ -114,22 +117,12 @@ TEST(AdaptivePaths, PillarCollapseOnAnAdaptedMeshMatchesTheUniformMesh)
   settings.highest_work_of_adhesion = 1.0;
   settings.relative_tolerance       = 2e-3;
   settings.largest_step             = 0.25;
-  const AdhesionPath uniform  = follow(pillar_cell(), adaptation_cycles, 0, StartProtocol::laid_down, settings);
-  const AdhesionPath adaptive = follow(pillar_cell(), 0, adaptation_cycles, StartProtocol::laid_down, settings);
-  ASSERT_TRUE(uniform.complete) << uniform.message;
-  ASSERT_TRUE(adaptive.complete) << adaptive.message;
-  const auto on_uniform = find_transitions(uniform, settings.target_fraction);
-  const auto on_adapted = find_transitions(adaptive, settings.target_fraction);
-  log_transitions(on_uniform);
-  log_transitions(on_adapted);
-  const AdhesionTransition *reference = first_of_kind(on_uniform, "tents → floor contact");
-  const AdhesionTransition *found     = first_of_kind(on_adapted, "tents → floor contact");
+  const PathPair            p         = follow_both(test_support::mos2_on_pillar_array(), settings);
+  const AdhesionTransition *reference = first_of_kind(p.on_uniform, "tents → floor contact");
+  const AdhesionTransition *found     = first_of_kind(p.on_adapted, "tents → floor contact");
   ASSERT_NE(reference, nullptr);
   ASSERT_NE(found, nullptr);
-  EXPECT_NEAR(std::log(found->gamma_upper / reference->gamma_upper), 0.0, 0.01);
-  EXPECT_NEAR(found->fraction_before, reference->fraction_before, 0.01);
-  EXPECT_NEAR(found->fraction_after, reference->fraction_after, 0.01);
-  expect_adapted_along_the_path(adaptive, uniform);
+  expect_same_transition(*found, *reference);
 }
 
 TEST(AdaptivePaths, EggCartonHoldingThresholdOnAnAdaptedMeshMatchesTheUniformMesh)
@@ -138,16 +131,9 @@ TEST(AdaptivePaths, EggCartonHoldingThresholdOnAnAdaptedMeshMatchesTheUniformMes
   settings.lowest_work_of_adhesion  = 0.1;
   settings.highest_work_of_adhesion = 1.5;
   settings.relative_tolerance       = 2e-3;
-  const AdhesionPath uniform  = follow(egg_carton_cell(), adaptation_cycles, 0, StartProtocol::grown_conformal, settings);
-  const AdhesionPath adaptive = follow(egg_carton_cell(), 0, adaptation_cycles, StartProtocol::grown_conformal, settings);
-  ASSERT_TRUE(uniform.complete) << uniform.message;
-  ASSERT_TRUE(adaptive.complete) << adaptive.message;
-  const auto on_uniform = find_transitions(uniform, settings.target_fraction);
-  const auto on_adapted = find_transitions(adaptive, settings.target_fraction);
-  log_transitions(on_uniform);
-  log_transitions(on_adapted);
-  const AdhesionThreshold reference = hold_threshold(uniform, settings.target_fraction);
-  const AdhesionThreshold found     = hold_threshold(adaptive, settings.target_fraction);
+  const PathPair          p         = follow_both(egg_carton_cell(), settings);
+  const AdhesionThreshold reference = hold_threshold(p.uniform, settings.target_fraction);
+  const AdhesionThreshold found     = hold_threshold(p.adaptive, settings.target_fraction);
   if (logging())
     std::cout << "    Γ_hold uniform [" << reference.lower << ", " << reference.upper << "], adaptive [" << found.lower
               << ", " << found.upper << "] J/m²\n";
@@ -155,10 +141,7 @@ TEST(AdaptivePaths, EggCartonHoldingThresholdOnAnAdaptedMeshMatchesTheUniformMes
   ASSERT_TRUE(found.found) << found.how;
   EXPECT_NEAR(std::log(found.value() / reference.value()), 0.0, 0.01);
   // The first jump below Γ_hold: where the contact front depins.
-  ASSERT_FALSE(on_uniform.empty());
-  ASSERT_FALSE(on_adapted.empty());
-  EXPECT_NEAR(std::log(on_adapted.front().gamma_upper / on_uniform.front().gamma_upper), 0.0, 0.01);
-  EXPECT_NEAR(on_adapted.front().fraction_before, on_uniform.front().fraction_before, 0.01);
-  EXPECT_NEAR(on_adapted.front().fraction_after, on_uniform.front().fraction_after, 0.01);
-  expect_adapted_along_the_path(adaptive, uniform);
+  ASSERT_FALSE(p.on_uniform.empty());
+  ASSERT_FALSE(p.on_adapted.empty());
+  expect_same_transition(p.on_adapted.front(), p.on_uniform.front());
 }

@@ -17,15 +17,11 @@
 #include <deal.II/base/function.h>
 #include <deal.II/numerics/vector_tools.h>
 
-#include <nappe/geometry/lattice_array.h>
-#include <nappe/geometry/radial_features.h>
 #include <nappe/geometry/sinusoidal_topography.h>
-#include <nappe/physics/adhesion_potential.h>
-#include <nappe/physics/material_catalogue.h>
-#include <nappe/physics/vdw_93_law.h>
 
 #include <gtest/gtest.h>
 
+#include "common/mos2_cells.h"
 #include "common/sheet_solve.h"
 
 #include <cmath>
@@ -55,33 +51,15 @@ namespace
 
   bool logging() { return std::getenv("NAPPE_TEST_LOG") && dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0; }
 
-  SheetProblem laid_on(std::shared_ptr<const Topography> topography, double cell, StartProtocol start)
-  {
-    const MaterialCatalogue catalogue;
-    SheetProblem            p;
-    p.model.material        = catalogue.material("MoS2");
-    p.domain.length_x       = p.domain.length_y = cell;
-    p.domain.coarse_cells_x = p.domain.coarse_cells_y = 4;
-    p.domain.periodic                                 = true;
-    p.model.substrate = std::make_shared<AdhesionPotential>(topography, std::make_shared<Vdw93Law>(0.22, 0.5 * nm),
-                                                            GapMeasure::normal);
-    p.start               = start;
-    p.stepping.load_steps = 1;
-    return p;
-  }
-
-  SheetProblem pillar_cell()
-  {
-    const double pitch  = 60 * nm;
-    auto         pillar = std::make_shared<Pillar>(5 * nm, 12 * nm, 2 * nm, 2 * nm, 70.0 * M_PI / 180.0);
-    return laid_on(LatticeArray::square(pillar, pitch), pitch, StartProtocol::laid_down);
-  }
+  SheetProblem pillar_cell() { return test_support::mos2_on_pillar_array(); }
 
   SheetProblem egg_carton_cell()
   {
     // Deep enough that the laid-down sheet rests on the crests only (about 4 % contact).
     const double wavelength = 30 * nm;
-    return laid_on(std::make_shared<EggCarton>(5 * nm, wavelength), wavelength, StartProtocol::laid_down);
+    SheetProblem p = test_support::mos2_periodic_cell(std::make_shared<EggCarton>(5 * nm, wavelength), wavelength);
+    p.start        = StartProtocol::laid_down;
+    return p;
   }
 
   struct Outcome
