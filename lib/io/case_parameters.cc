@@ -148,7 +148,9 @@ namespace nappe
     prm.declare_entry("Penalty factor", "2", Patterns::Double(0),
                       "C0 interior penalty factor η; the edge penalty is η·p(p+1)·D/h [-].");
     prm.declare_entry("Load steps", "4", Patterns::Integer(1, 10000), "Equal load increments from 0 to full load [-].");
-    prm.declare_entry("Max Newton iterations", "80", Patterns::Integer(1, 10000), "Per load step [-].");
+    prm.declare_entry("Max Newton iterations", "80", Patterns::Integer(1, 10000),
+                      "Per minimisation; a load step takes up to four more such budgets while the energy keeps "
+                      "falling (an adhesion front on its way across the substrate) [-].");
     prm.declare_entry("Relative tolerance", "1e-9", Patterns::Double(0),
                       "Newton stops when |R| ≤ tolerance · (initial |R| of the step) [-].");
     prm.declare_entry("Memory limit", "0", Patterns::Double(0),

@@ -91,6 +91,16 @@ namespace nappe
     return why.str();
   }
 
+  void EnergyMinimizer::report_out_of_iterations(MinimizerReport &report) const
+  {
+    std::ostringstream s;
+    s << "no convergence in " << settings_.max_iterations << " Newton iterations; last residual "
+      << std::scientific << std::setprecision(3) << report.residual << " N against a tolerance of "
+      << report.tolerance << " N";
+    report.message           = s.str();
+    report.out_of_iterations = true;
+  }
+
   // S = diag|H|, floored at 1e-12 of its largest entry so that the scaled norm stays a norm.
   void EnergyMinimizer::set_scaling(const SparseMatrix &H)
   {
@@ -248,11 +258,7 @@ namespace nappe
             return report;
           }
       }
-    std::ostringstream s;
-    s << "no convergence in " << settings_.max_iterations << " Newton iterations; last residual "
-      << std::scientific << std::setprecision(3) << report.residual << " N against a tolerance of " << tolerance
-      << " N";
-    report.message        = s.str();
+    report_out_of_iterations(report);
     report.factorizations = subproblem.factorizations();
     return report;
   }

@@ -230,11 +230,7 @@ namespace nappe
             return report;
           }
       }
-    std::ostringstream s;
-    s << "no convergence in " << settings_.max_iterations << " Newton iterations; last residual "
-      << std::scientific << std::setprecision(3) << report.residual << " N against a tolerance of " << tolerance
-      << " N";
-    report.message = s.str();
+    report_out_of_iterations(report);
     return report;
   }
 } // namespace nappe

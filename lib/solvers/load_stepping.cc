@@ -3,6 +3,7 @@
 #include <nappe/solvers/load_stepping.h>
 #include <nappe/solvers/path_tangent.h>
 
+#include <cmath>
 #include <iomanip>
 #include <sstream>
 
@@ -10,9 +11,25 @@ namespace nappe
 {
   namespace
   {
+    /// Whether a minimisation that ran out of iterations was still lowering the energy by more than 1e-4 of
+    /// its scale over its last 10 iterations (common practice, no source): on its way, not stalled.
+    bool still_descending(const MinimizerReport &report)
+    {
+      const auto &h = report.history;
+      if (!report.out_of_iterations || h.size() < 11)
+        return false;
+      const EnergyParts &e     = report.parts;
+      const double       scale = std::abs(e.stretching) + std::abs(e.bending) + std::abs(e.substrate) +
+                           std::abs(e.external_work);
+      return h[h.size() - 11].energy - h.back().energy > 1e-4 * scale;
+    }
+
     /// What to try after a failed load path, from its cause.
     std::string advice(const SheetModel &model, const MinimizerReport &report)
     {
+      if (still_descending(report))
+        return "The sheet was still on its way (the energy still falling): raise Solver/Max Newton iterations; an "
+               "adhesion front that sweeps across the substrate takes a few iterations per element it crosses.";
       if (report.message.find("indefinite") != std::string::npos)
         return "Check the supports (Edges/Conditions) and the loads: the sheet has no stable state as modelled.";
       if (report.message.find("badly scaled") != std::string::npos)
@@ -50,6 +67,15 @@ namespace nappe
           }
         MinimizerReport report = minimizer.minimize(state, LoadLevel(target, adhesion_factor), 0.0);
         path.newton_iterations += report.iterations;
+        unsigned int continued = 0;
+        for (; continued < settings.max_continuations && still_descending(report); ++continued)
+          {
+            if (log)
+              *log << "  still descending after " << report.iterations
+                   << " Newton iterations (the energy keeps falling): continuing from there\n";
+            report = minimizer.minimize(state, LoadLevel(target, adhesion_factor), 0.0);
+            path.newton_iterations += report.iterations;
+          }
         if (report.converged)
           {
             lambda = target;
@@ -63,7 +89,8 @@ namespace nappe
         if (path.step_cuts++ >= settings.max_step_cuts)
           {
             std::ostringstream s;
-            s << "Newton did not reach a stable state at load factor " << target << " (" << report.message
+            s << "Newton did not reach a stable state at load factor " << target << " ("
+              << (continued ? std::to_string(continued) + " continuation(s), then " : std::string()) << report.message
               << "). " << advice(minimizer.system().model(), report);
             path.message   = s.str();
             path.wall_time = timer.wall_time();

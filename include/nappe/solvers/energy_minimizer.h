@@ -67,6 +67,8 @@ namespace nappe
     unsigned int factorizations  = 0; ///< factorisations (HessianSolver::prepare) this minimisation used
     /// Stopped early because the caller's IterateCheck returned false (not converged, not a failure).
     bool         stopped         = false;
+    /// Not converged because the iteration budget (MinimizerSettings::max_iterations) ran out.
+    bool         out_of_iterations = false;
     std::vector<IterationRecord> history;
   };
 
@@ -139,6 +141,7 @@ namespace nappe
     static double energy_scale(const EnergyParts &e);
     double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
     std::string  stalled_message(double residual, double physical) const;
+    void         report_out_of_iterations(MinimizerReport &report) const;
 
     SheetSystem          &system_;
     MinimizerSettings     settings_;
