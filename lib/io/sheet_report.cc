@@ -83,7 +83,10 @@ namespace nappe
       json.quantity("final_residual", last.residual, "N");
       json.quantity("residual_tolerance", last.tolerance, "N");
       json.value("hessian_negative_pivots", last.negative_pivots);
-      json.value("stability", last.negative_pivots == 0 ? "stable minimum (Hessian positive definite)" : "unstable");
+      json.value("hessian_zero_pivots", last.zero_pivots);
+      json.value("stability", last.negative_pivots > 0 ? "unstable" :
+                              last.zero_pivots > 0    ? "neutrally stable minimum (Hessian positive semi-definite)" :
+                                                        "stable minimum (Hessian positive definite)");
       const SolverSettings used = resolved(c.problem.solver, r.unknowns, r.meshes.size() > 1);
       json.value("linear_solver", used.linear_solver);
       json.value("stability_certificate", used.certificate);
@@ -330,9 +333,15 @@ namespace nappe
     print_mesh_adaptation(r, out);
     const SolverSettings used       = resolved(c.problem.solver, r.unknowns, r.meshes.size() > 1);
     const bool           by_inertia = used.certificate == "LDLT inertia";
-    out << (by_inertia ? "Solver: certified stable equilibrium (Hessian positive definite; " :
-                         "Solver: stable equilibrium (lowest Hessian eigenvalue positive by LOBPCG, not a proof; ")
-        << r.path.newton_iterations
+    const unsigned int   zeros      = r.path.final_state().zero_pivots;
+    if (zeros > 0)
+      out << "Solver: neutrally stable equilibrium (Hessian positive semi-definite with " << zeros
+          << " zero eigenvalue(s): the sheet can move along a symmetry of the cell, e.g. a wrinkle sliding, "
+             "without changing its energy; ";
+    else
+      out << (by_inertia ? "Solver: certified stable equilibrium (Hessian positive definite; " :
+                           "Solver: stable equilibrium (lowest Hessian eigenvalue positive by LOBPCG, not a proof; ");
+    out << r.path.newton_iterations
         << " Newton iterations in " << load_steps(r) << " load step(s)"
         << (r.meshes.size() > 1 ? " and " + std::to_string(r.meshes.size() - 1) + " adapted mesh(es)" : "") << ", "
         << used.linear_solver << ", "

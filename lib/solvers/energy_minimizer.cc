@@ -101,6 +101,19 @@ namespace nappe
     report.out_of_iterations = true;
   }
 
+  std::string EnergyMinimizer::converged_line(const MinimizerReport &report)
+  {
+    std::ostringstream s;
+    s << "    Newton " << std::setw(2) << report.iterations << ": E = " << std::scientific << std::setprecision(6)
+      << report.energy << " J, |R| = " << std::setprecision(2) << report.residual << " N, ";
+    if (report.zero_pivots == 0)
+      s << "stable (0 negative pivots)\n";
+    else
+      s << "neutrally stable (0 negative, " << report.zero_pivots << " zero pivot(s): the energy is constant along "
+        << "a symmetry of the cell)\n";
+    return s.str();
+  }
+
   // S = diag|H|, floored at 1e-12 of its largest entry so that the scaled norm stays a norm.
   void EnergyMinimizer::set_scaling(const SparseMatrix &H)
   {
@@ -166,6 +179,7 @@ namespace nappe
         report.energy               = e.total();
         report.parts                = e;
         report.negative_pivots      = negative;
+        report.zero_pivots          = subproblem.zero_eigenvalues();
         report.tolerance            = tolerance;
         report.factorizations       = subproblem.factorizations();
         IterationRecord rec{it, e.total(), r, 0.0, 0.0, negative, radius, 0};
@@ -186,10 +200,7 @@ namespace nappe
                 report.history.push_back(rec);
                 report.converged = true;
                 hessian_current_ = true;
-                std::ostringstream s;
-                s << "    Newton " << std::setw(2) << it << ": E = " << std::scientific << std::setprecision(6)
-                  << e.total() << " J, |R| = " << std::setprecision(2) << r << " N, stable (0 negative pivots)\n";
-                say(s.str());
+                say(converged_line(report));
                 return report;
               }
             if (report.saddle_escapes++ >= settings_.max_saddle_escapes)

@@ -3,9 +3,11 @@
 #include <deal.II/numerics/vector_tools.h>
 
 #include <nappe/solvers/energy_minimizer.h>
+#include <nappe/solvers/symmetric_direct_solver.h>
 
 #include "matrix_diagonal.h"
 
+#include <algorithm>
 #include <cmath>
 #include <iomanip>
 #include <sstream>
@@ -14,32 +16,73 @@ namespace nappe
 {
   using namespace dealii;
 
-  // Prepares the Hessian held in the system; if it is indefinite, adds μ·diag|H| with μ grown
-  // until the certificate finds no negative eigenvalue. Returns the count of the unshifted matrix.
-  // The search starts a little below the last shift that worked: a shift much larger than needed
-  // damps the soft modes (a moving adhesion front) and makes the iteration crawl.
-  unsigned int EnergyMinimizer::factorize_positive_definite(double &shift, unsigned int &factorizations)
+  namespace
   {
-    SparseMatrix &H = system_.hessian_matrix();
-    factorizations  = 1;
-    solvers_.solver->prepare(H);
-    const unsigned int negative = solvers_.certificate->negative_eigenvalues(H);
-    shift                       = 0.0;
-    if (negative == 0)
+    /// Times one minimisation may raise the shift after a step without decrease (common practice, no source;
+    /// the failure seen with multilevel CG needed five tenfold raises spread over step cuts).
+    const unsigned int max_shift_raises = 6;
+  } // namespace
+
+  // Prepares the solver and the certificate for the Hessian held in the system; false, with the null
+  // pivots in @p zeros, if it is singular (MUMPS error −10; INFOG(28), at least one).
+  bool EnergyMinimizer::prepare_unless_singular(unsigned int &negative, unsigned int &zeros)
+  {
+    const SparseMatrix &H = system_.hessian_matrix();
+    try
+      {
+        solvers_.solver->prepare(H);
+        negative = solvers_.certificate->negative_eigenvalues(H);
+        return true;
+      }
+    catch (const DirectSolverError &e)
+      {
+        if (e.mumps_error() != -10)
+          throw;
+        zeros = std::max(e.mumps_detail(), 1);
+        return false;
+      }
+  }
+
+  // Prepares the Hessian held in the system; if it is indefinite or singular, or @p minimum_shift > 0,
+  // adds μ·diag|H| with μ ≥ minimum_shift grown until the certificate finds no negative eigenvalue.
+  // Returns the count of the unshifted matrix and, in @p zeros, its null pivots. The search starts a
+  // little below the last shift that worked: a shift much larger than needed damps the soft modes (a
+  // moving adhesion front) and makes the iteration crawl. A singular H is probed first with the tiny
+  // internal::null_space_shift: positive definite there, H is positive semi-definite and that is the
+  // step's factorisation.
+  unsigned int EnergyMinimizer::factorize_positive_definite(double minimum_shift, double &shift, unsigned int &zeros,
+                                                            unsigned int &factorizations)
+  {
+    SparseMatrix &H       = system_.hessian_matrix();
+    unsigned int negative = 0;
+    factorizations        = 1;
+    shift                 = 0.0;
+    zeros                 = 0;
+    const bool regular    = prepare_unless_singular(negative, zeros);
+    if (regular && negative == 0 && minimum_shift == 0.0)
       return 0;
     internal::extract_diagonal(H, diagonal_);
     for (const auto i : diagonal_.locally_owned_elements())
       diagonal_(i) = std::abs(diagonal_(i));
     diagonal_.compress(VectorOperation::insert);
-    double added = 0.0;
-    for (double mu = std::max(1e-12, 1e-2 * last_shift_); mu < 1e6; mu *= 10.0)
+    double     added         = 0.0;
+    const auto definite_with = [&](double mu, unsigned int &count) {
+      internal::add_to_diagonal(H, diagonal_, mu - added);
+      solvers_.solver->set_diagonal_shift(mu);
+      added = mu;
+      ++factorizations;
+      unsigned int ignored = 0;
+      return prepare_unless_singular(count, ignored) && count == 0;
+    };
+    if (!regular && definite_with(internal::null_space_shift, negative) && minimum_shift == 0.0)
       {
-        internal::add_to_diagonal(H, diagonal_, mu - added);
-        solvers_.solver->set_diagonal_shift(mu);
-        added = mu;
-        ++factorizations;
-        solvers_.solver->prepare(H);
-        if (solvers_.certificate->negative_eigenvalues(H) == 0)
+        shift = internal::null_space_shift;
+        return 0;
+      }
+    for (double mu = std::max({1e-12, 1e-2 * last_shift_, minimum_shift}); mu < 1e6; mu *= 10.0)
+      {
+        unsigned int count = 0;
+        if (definite_with(mu, count))
           {
             shift       = mu;
             last_shift_ = mu;
@@ -140,7 +183,9 @@ namespace nappe
         *log_ << s << std::flush;
     };
 
-    const double physical = system_.physical_force_scale(level);
+    const double physical      = system_.physical_force_scale(level);
+    double       minimum_shift = 0.0; // raised after a step without decrease
+    unsigned int shift_raises  = 0;
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted            = state;
@@ -150,8 +195,8 @@ namespace nappe
         if (tolerance < 0.0)
           tolerance = residual_tolerance(level, force_scale, r);
         double             shift          = 0.0;
-        unsigned int       factorizations = 0;
-        const unsigned int negative       = factorize_positive_definite(shift, factorizations);
+        unsigned int       factorizations = 0, zeros = 0;
+        const unsigned int negative = factorize_positive_definite(minimum_shift, shift, zeros, factorizations);
         report.factorizations += factorizations;
         if (shift < 0.0)
           {
@@ -166,6 +211,7 @@ namespace nappe
         report.energy     = e.total();
         report.parts      = e;
         report.negative_pivots = negative;
+        report.zero_pivots     = zeros;
         report.tolerance  = tolerance;
 
         direction = residual_;
@@ -188,10 +234,7 @@ namespace nappe
               {
                 report.converged = true;
                 hessian_current_ = true;
-                std::ostringstream s;
-                s << "    Newton " << std::setw(2) << it << ": E = " << std::scientific << std::setprecision(6)
-                  << e.total() << " J, |R| = " << std::setprecision(2) << r << " N, stable (0 negative pivots)\n";
-                say(s.str());
+                say(converged_line(report));
                 return report;
               }
             if (report.saddle_escapes++ >= settings_.max_saddle_escapes ||
@@ -217,12 +260,23 @@ namespace nappe
           << " J, |R| = " << std::setprecision(2) << r << " N, step " << std::defaultfloat << std::setprecision(3)
           << step << (shift > 0 ? ", shift " : "") << (shift > 0 ? std::to_string(shift) : std::string()) << "\n";
         say(s.str());
+        if (!ok && shift_raises < max_shift_raises)
+          {
+            // An inexact solve (multilevel CG stops at 1e-3 of a shifted step) or round-off can give a direction
+            // that does not descend; a larger shift makes the step shorter and better conditioned.
+            ++shift_raises;
+            minimum_shift = std::max(10.0 * shift, 1e-6);
+            say("    Newton: no decrease along the step; shift raised to " + std::to_string(minimum_shift) + "\n");
+            continue;
+          }
         if (!ok)
           {
             report.message = "the energy line search found no decrease (the Newton direction is not a descent "
-                             "direction at this accuracy)";
+                             "direction at this accuracy, even with the Hessian shift raised " +
+                             std::to_string(max_shift_raises) + " times)";
             return report;
           }
+        minimum_shift = 0.0;
         if (keep_going && !keep_going(state, rec))
           {
             report.stopped = true;

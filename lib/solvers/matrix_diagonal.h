@@ -8,6 +8,14 @@
 
 namespace nappe::internal
 {
+  /**
+   * A Hessian with null pivots (eigenvalues zero to round-off, e.g. a wrinkle that can slide along a periodic
+   * cell) is factorised shifted by this multiple of diag|H| instead. It is far above the pivots' round-off and far
+   * below any physical curvature, so the shifted inertia counts H's negative eigenvalues and its zero ones as
+   * positive (common practice, no source) [-].
+   */
+  constexpr double null_space_shift = 1e-10;
+
   /// @p diagonal (owned) = H_ii of the locally owned rows.
   void extract_diagonal(const SparseMatrix &H, Vector &diagonal);
 

@@ -18,6 +18,9 @@ namespace nappe
     /// As the direct certificate's inverse iteration: three digits to extrapolate a fold.
     const double       eigen_tolerance = 1e-3;
     const unsigned int max_iterations  = 50;
+    /// Below this |μ| the bound is absolute (1e-9 with eigen_tolerance): a zero eigenvalue (a symmetry of the cell)
+    /// has no relative accuracy to reach (common practice, no source) [-].
+    const double zero_floor = 1e-6;
 
     double s_product(const Vector &a, const Vector &b, const Vector &weights)
     {
@@ -135,7 +138,8 @@ namespace nappe
         Sx.scale(weights);
         r.add(-e.value, Sx);
         e.error = std::sqrt(std::max(0.0, s_product(r, r, inverse_weights)));
-        if ((sign_only && e.value < 0.0) || e.error <= tolerance * std::abs(e.value))
+        const double resolved = tolerance * std::max(std::abs(e.value), sign_only ? 0.0 : zero_floor);
+        if ((sign_only && e.value < 0.0) || e.error <= resolved)
           return e;
         preconditioner_->precondition(r, w);
         constraints.set_zero(w);

@@ -60,7 +60,8 @@ namespace nappe
       {
         if (e.mumps_error() != -10)
           throw;
-        count = dealii::numbers::invalid_unsigned_int;
+        last_null_pivots_ = std::max(e.mumps_detail(), 1);
+        count             = dealii::numbers::invalid_unsigned_int;
         return false;
       }
     prepared_ = true;
@@ -114,7 +115,11 @@ namespace nappe
     unsigned int count = 0;
     newton_length_     = -1.0;
     newton_decrement_  = -1.0;
-    if (factorize_at(0.0, count))
+    bool definite      = factorize_at(0.0, count);
+    zero_eigenvalues_  = count == dealii::numbers::invalid_unsigned_int ? last_null_pivots_ : 0;
+    if (zero_eigenvalues_ > 0)
+      definite = factorize_at(internal::null_space_shift, count);
+    if (definite)
       {
         solve_shifted(gradient, newton_step_);
         newton_step_ *= -1.0;
@@ -184,7 +189,9 @@ namespace nappe
     };
     if (inertia_ == 0 && newton_length_ <= (1 + boundary_accuracy) * radius)
       return finish(newton_step_, 0.0);
-    if (inertia_ == 0 && shift_ == 0.0)
+    // H unshifted (or shifted by internal::null_space_shift·S if it is singular) holds the Newton step's matrix.
+    const bool at_newton_shift = inertia_ == 0 && shift_ <= internal::null_space_shift;
+    if (at_newton_shift)
       return finish(dogleg(radius), 0.0);
 
     // Gershgorin's bound, needed only here (not by the Newton step nor the dogleg).
@@ -193,7 +200,7 @@ namespace nappe
     double lower = lower_, upper = gershgorin_ + gradient_length_ / radius;
     Vector p = newton_step_, w = newton_step_, Sp = newton_step_;
     double lambda   = 0.0;
-    bool   have_p   = inertia_ == 0 && shift_ == 0.0 && prepared_; // the Newton step at λ = 0
+    bool   have_p   = at_newton_shift && prepared_; // the Newton step at λ = 0
     bool   eigen_known = false;
     Vector best_p;
     double best_lambda = -1.0;

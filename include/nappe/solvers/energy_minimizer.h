@@ -63,6 +63,10 @@ namespace nappe
     /// Negative eigenvalues of the Hessian at the returned state, from the stability certificate
     /// (for LDLᵀ: its negative pivots, Sylvester's law of inertia); 0 certifies a strict local minimum.
     unsigned int negative_pivots = 0;
+    /// Eigenvalues of that Hessian that are zero to round-off (null pivots of LDLᵀ). With negative_pivots = 0
+    /// and zero_pivots > 0 the state is a neutrally stable minimum: the energy is constant along that many
+    /// directions (a symmetry, e.g. a wrinkle free to slide along a periodic cell), not a strict one.
+    unsigned int zero_pivots     = 0;
     unsigned int saddle_escapes  = 0;
     unsigned int factorizations  = 0; ///< factorisations (HessianSolver::prepare) this minimisation used
     /// Stopped early because the caller's IterateCheck returned false (not converged, not a failure).
@@ -132,7 +136,9 @@ namespace nappe
     MinimizerReport minimize_line_search(Vector &state, const LoadLevel &level, double force_scale,
                                          const IterateCheck &keep_going);
     void         set_scaling(const SparseMatrix &H);
-    unsigned int factorize_positive_definite(double &shift, unsigned int &factorizations);
+    unsigned int factorize_positive_definite(double minimum_shift, double &shift, unsigned int &zeros,
+                                             unsigned int &factorizations);
+    bool         prepare_unless_singular(unsigned int &negative, unsigned int &zeros);
     bool         line_search(Vector &state, const Vector &direction, double energy, double slope,
                              const LoadLevel &level, double &step);
     bool         escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift);
@@ -142,6 +148,8 @@ namespace nappe
     double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
     std::string  stalled_message(double residual, double physical) const;
     void         report_out_of_iterations(MinimizerReport &report) const;
+    /// The log line of a converged minimisation: energy, residual and the certificate's verdict.
+    static std::string converged_line(const MinimizerReport &report);
 
     SheetSystem          &system_;
     MinimizerSettings     settings_;

@@ -55,11 +55,16 @@ namespace nappe
     MoreSorensenSubproblem(HessianSolvers solvers, const Vector &seed);
 
     /**
-     * A new point: factorises @p H and returns its number of negative eigenvalues (the certificate);
-     * numbers::invalid_unsigned_int if H is singular. @p H, @p gradient and @p weights (S, positive)
-     * must stay alive and unchanged (except through this class) until the next set_point().
+     * A new point: factorises @p H and returns its number of negative eigenvalues (the certificate).
+     * A singular H (null pivots) is factorised shifted by internal::null_space_shift·S, whose inertia
+     * is H's with the zero eigenvalues counted positive; numbers::invalid_unsigned_int if that is
+     * singular too. @p H, @p gradient and @p weights (S, positive) must stay alive and unchanged
+     * (except through this class) until the next set_point().
      */
     unsigned int set_point(SparseMatrix &H, const Vector &gradient, const Vector &weights);
+
+    /// Null pivots (eigenvalues zero to round-off) of the H of the last set_point(); 0 if it was regular.
+    unsigned int zero_eigenvalues() const { return zero_eigenvalues_; }
 
     /// The step for the radius @p radius [√J] at the current point.
     TrustRegionStep solve(double radius);
@@ -94,6 +99,8 @@ namespace nappe
     double         shift_    = 0.0; ///< λ currently added to H
     bool           prepared_ = false; ///< the factorisation is of H + shift_·S
     unsigned int   inertia_  = 0;     ///< negative eigenvalues of the unshifted H
+    unsigned int   zero_eigenvalues_ = 0; ///< its null pivots
+    unsigned int   last_null_pivots_ = 0; ///< the null pivots of the last singular factorisation
     double         lower_    = 0.0;   ///< λ_L from positive definiteness: λ* ≥ lower_ for every radius
     double         gershgorin_ = -1.0; ///< H + λS is positive definite for λ > this (Gershgorin); < 0: not yet known
     Vector         newton_step_;           ///< −H⁻¹g if H is positive definite

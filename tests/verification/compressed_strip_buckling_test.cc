@@ -1,0 +1,126 @@
+// A compressive start in a periodic cell: a flat free sheet on a periodic cell Lx × Ly (Ly ≪ Lx) held at the
+// mean strain ε̄_xx = −ε, ε̄_yy = ε̄_xy = 0 buckles into w = A sin(k(x − x₀)), k = 2π/Lx. This is an exact solution
+// of the Föppl–von Kármán equations (derived here; substitute to check): with u_x = −½ w_x² + ¼ A²k², the membrane
+// strain ε_xx = −ε + ¼ A²k² is uniform, ε_yy = 0, so N_xx is uniform and D w'''' + N_xx w'' = 0 holds for
+// N_xx = −D k²: the buckled strip carries exactly the critical force. With a = ¼ A²k² the energy per area,
+//
+//     Π/(Lx Ly) = Y (a − ε)² / (2 (1 − ν²)) + D k² a,
+//
+// is least at a = ε − ε_c, ε_c = (1 − ν²) D k² / Y (the flat state's critical strain), so
+//
+//     A = (2/k) √(ε − ε_c),   N_xx = −D k²,   Π/(Lx Ly) = Y ε_c² / (2 (1 − ν²)) + D k² (ε − ε_c).
+//
+// (The same result as the post-buckling of a column under imposed end shortening, Timoshenko & Gere, Theory of
+// Elastic Stability, 2nd ed., 1961, §2.7 — from memory.) Modes across the cell (k_y ≥ 2π/Ly) are not excited: the
+// transverse force ν N_xx stays far below their critical value. The flat start is a stationary point (R = 0 by
+// symmetry) whose Hessian has negative curvature: the minimiser must leave it, with either globalisation.
+// The buckle is free to slide along x (the cell is periodic), so the Hessian at it has a zero eigenvalue:
+// the minimisers must accept a positive semi-definite Hessian (null pivots) as a neutrally stable minimum.
+#include <nappe/physics/sheet_material.h>
+
+#include "common/sheet_solve.h"
+
+#include <algorithm>
+#include <cmath>
+
+using namespace nappe;
+
+namespace
+{
+  constexpr double nm  = 1e-9;
+  constexpr double Lx  = 20.0 * nm, Ly = 2.5 * nm;
+  constexpr double Y   = 340.0;      // 2D Young's modulus [N/m] (graphene-like)
+  constexpr double nu  = 0.16;       // [-]
+  constexpr double D   = 2.24e-19;   // bending rigidity [J] (1.4 eV)
+  constexpr double eps = 2e-3;       // imposed compressive mean strain [-]
+  const double     k   = 2.0 * M_PI / Lx;
+  const double     eps_c = (1.0 - nu * nu) * D * k * k / Y;
+
+  SheetModel compressed_strip()
+  {
+    SheetModel model;
+    model.material.youngs_modulus_2d = Y;
+    model.material.poisson_ratio     = nu;
+    model.material.bending_rigidity  = D;
+    model.loads.mean_strain[0][0]    = -eps;
+    return model;
+  }
+
+  SheetDomain periodic_strip()
+  {
+    SheetDomain d;
+    d.length_x           = Lx;
+    d.length_y           = Ly;
+    d.coarse_cells_x     = 8;
+    d.coarse_cells_y     = 1;
+    d.global_refinements = 2; // 32 × 4 Q2 cells, 32 per wavelength
+    d.periodic           = true;
+    return d;
+  }
+
+  struct Buckle : test_support::SolvedSheet
+  {
+    LowestEigenpair slide; ///< the lowest eigenpair of the Hessian pencil at the buckle
+  };
+
+  /// Minimises from the flat state with the globalisation @p method; fails the test unless certified.
+  Buckle buckle(MinimizerMethod method)
+  {
+    Buckle out;
+    out.system = std::make_unique<SheetSystem>(compressed_strip(), periodic_strip(), MPI_COMM_WORLD);
+    MinimizerSettings settings;
+    settings.method = method;
+    EnergyMinimizer minimizer(*out.system, settings, std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr,
+                              test_support::test_solvers(*out.system));
+    Vector owned = out.system->make_owned_vector();
+    out.report   = minimizer.minimize(owned, 1.0, 0.0);
+    EXPECT_TRUE(out.report.converged) << out.report.message;
+    EXPECT_EQ(out.report.negative_pivots, 0u);
+    EXPECT_LE(out.report.zero_pivots, 1u);
+    out.state = out.system->make_ghosted_vector();
+    out.state = owned;
+    if (out.report.converged)
+      out.slide = minimizer.lowest_curvature();
+    return out;
+  }
+
+  /// Half the peak-to-peak deflection along the middle line y = Ly/2 [m].
+  double amplitude(const test_support::SolvedSheet &s)
+  {
+    double lowest = 0.0, highest = 0.0;
+    for (unsigned int i = 0; i < 400; ++i)
+      {
+        const double w = s.system->deflection_at(s.state, dealii::Point<2>((i + 0.5) * Lx / 400, 0.5 * Ly));
+        lowest         = std::min(lowest, w);
+        highest        = std::max(highest, w);
+      }
+    return 0.5 * (highest - lowest);
+  }
+
+  void expect_exact_buckle(const Buckle &s)
+  {
+    const double A_exact = 2.0 / k * std::sqrt(eps - eps_c);
+    const double energy_exact =
+      Lx * Ly * (Y * eps_c * eps_c / (2.0 * (1.0 - nu * nu)) + D * k * k * (eps - eps_c));
+    EXPECT_NEAR(amplitude(s) / A_exact, 1.0, 0.01);
+    EXPECT_NEAR(s.report.energy / energy_exact, 1.0, 0.01);
+    // The flat state's energy Y ε² Lx Ly / (2(1 − ν²)) is 16× the buckled one (ratio ε/(2ε_c)): a flat answer fails.
+    EXPECT_LT(s.report.energy, 0.1 * Lx * Ly * Y * eps * eps / (2.0 * (1.0 - nu * nu)));
+    // Sliding costs no energy: the lowest eigenvalue of H v = μ diag|H| v is zero to round-off (with the
+    // null-space shift of 1e-10, if the factorisation found the null pivot).
+    ASSERT_TRUE(s.slide.available);
+    EXPECT_LT(std::abs(s.slide.value), 1e-6);
+  }
+} // namespace
+
+TEST(CompressedPeriodicStrip, LineSearchLeavesTheFlatStartForTheExactBuckle)
+{
+  const auto solved = buckle(MinimizerMethod::line_search);
+  EXPECT_GE(solved.report.saddle_escapes, 1u);
+  expect_exact_buckle(solved);
+}
+
+TEST(CompressedPeriodicStrip, TrustRegionLeavesTheFlatStartForTheExactBuckle)
+{
+  expect_exact_buckle(buckle(MinimizerMethod::trust_region));
+}
