@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <map>
 #include <regex>
 #include <sstream>
@@ -17,12 +18,23 @@ namespace nappe
 {
   namespace
   {
-    /// The declared entries (name → pattern description) and subsections of one section.
+    /// What is declared for one entry: its pattern description and whether it is a length in nm.
+    struct Declared
+    {
+      std::string pattern;
+      bool        in_nm = false;
+    };
+
+    /// The declared entries and subsections of one section.
     struct Section
     {
-      std::map<std::string, std::string> entries;
-      std::map<std::string, Section>     sections;
+      std::map<std::string, Declared> entries;
+      std::map<std::string, Section>  sections;
     };
+
+    /// A length below this is smaller than an atom by two orders: an entry in nm given in metres (common practice,
+    /// no source) [nm].
+    const double smallest_length_nm = 1e-3;
 
     /// deal.II writes names with every character but [a-zA-Z0-9] as "_xx" (hex).
     std::string demangle(const std::string &name)
@@ -39,11 +51,18 @@ namespace nappe
       return out;
     }
 
+    /// The entry's documentation states its unit as "[nm]" or "Unit: nm.".
+    bool is_in_nm(const std::string &documentation)
+    {
+      return documentation.find("[nm]") != std::string::npos || documentation.find("Unit: nm.") != std::string::npos;
+    }
+
     void fill(Section &section, const boost::property_tree::ptree &tree)
     {
       for (const auto &[key, child] : tree)
         if (child.count("value") && child.count("pattern_description"))
-          section.entries[demangle(key)] = child.get<std::string>("pattern_description");
+          section.entries[demangle(key)] = {child.get<std::string>("pattern_description"),
+                                            is_in_nm(child.get<std::string>("documentation", ""))};
         else if (!child.empty())
           fill(section.sections[demangle(key)], child);
     }
@@ -124,13 +143,30 @@ namespace nappe
       throw;
     }
 
+    /// A length in nm written in metres: a single number whose magnitude is above 0 and below smallest_length_nm.
+    void check_length_scale(const std::string &value, const std::string &where, const std::string &entry)
+    {
+      std::istringstream in(value);
+      double             v = 0.0;
+      if (!(in >> v) || !(in >> std::ws).eof() || v == 0.0 || std::abs(v) >= smallest_length_nm)
+        return;
+      fail(where, entry + " = '" + value + "': lengths here are in nm, and this is below " +
+                    dealii::Utilities::to_string(smallest_length_nm) +
+                    " nm, far smaller than an atom; was it given in metres? (8e-9 m is written 8)");
+    }
+
     /// Checks @p value against the entry's pattern; @p entry is "Section/…/Entry" for the message.
-    void check_value(const std::string &description, const std::string &value, const std::string &where,
+    void check_value(const Declared &declared, const std::string &value, const std::string &where,
                      const std::string &entry)
     {
-      const auto pattern = dealii::Patterns::pattern_factory(description);
+      const std::string &description = declared.pattern;
+      const auto         pattern     = dealii::Patterns::pattern_factory(description);
       if (pattern->match(value))
-        return;
+        {
+          if (declared.in_nm)
+            check_length_scale(value, where, entry);
+          return;
+        }
       std::string hint;
       if (std::regex_match(value, std::regex(R"(\s*[-+]?[0-9.]+([eE][-+]?[0-9]+)?\s*[^\s0-9.,].*)")))
         hint = "; write the number alone: the unit is fixed by the entry (see its description in --print-defaults)";

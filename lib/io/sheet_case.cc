@@ -51,18 +51,18 @@ namespace nappe
     /**
      * The entry's value, checked against the range any sheet model admits (wider than what the trade
      * uses; plausibility_warnings() covers that): throws naming the entry, its value and the range.
-     * @p low_open excludes the lower bound.
+     * @p low_open excludes the lower bound. (A length in metres typed into an nm entry is caught, with that
+     * hint, when the file is read: validate_parameter_text().)
      */
     double admissible(ParameterHandler &prm, const std::string &section, const std::string &entry, double low,
-                      double high, const std::string &unit, bool low_open = false, const std::string &cause_low = "")
+                      double high, const std::string &unit, bool low_open = false)
     {
       const double value = prm.get_double(entry);
       const bool   ok    = std::isfinite(value) && (low_open ? value > low : value >= low) && value <= high;
       std::ostringstream range;
       range << (low_open ? "(" : "[") << low << ", " << high << "]";
       AssertThrow(ok, ExcMessage(section + "/" + entry + " = " + prm.get(entry) + " " + unit +
-                                 " is outside the admissible range " + range.str() + " " + unit + "." +
-                                 (value < low && !cause_low.empty() ? " " + cause_low : "")));
+                                 " is outside the admissible range " + range.str() + " " + unit + "."));
       return value;
     }
 
@@ -73,8 +73,6 @@ namespace nappe
       s << std::setprecision(6) << length / units::nanometer;
       return s.str();
     }
-
-    const std::string metres_in_nm = "A length in metres typed into an nm entry? (1e-8 m = 10 nm)";
 
     std::string id_list(const std::vector<types::boundary_id> &ids)
     {
@@ -232,9 +230,9 @@ namespace nappe
       prm.enter_subsection("Domain");
       periods_per_cell     = prm.get_integer("Periods per cell");
       d.shape              = SheetDomain::parse_shape(prm.get("Shape"));
-      d.length_x           = admissible(prm, "Domain", "Length x", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
-      d.length_y           = admissible(prm, "Domain", "Length y", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
-      d.radius             = admissible(prm, "Domain", "Radius", 1e-3, 1e7, "nm", false, metres_in_nm) * units::nanometer;
+      d.length_x           = admissible(prm, "Domain", "Length x", 1e-3, 1e7, "nm") * units::nanometer;
+      d.length_y           = admissible(prm, "Domain", "Length y", 1e-3, 1e7, "nm") * units::nanometer;
+      d.radius             = admissible(prm, "Domain", "Radius", 1e-3, 1e7, "nm") * units::nanometer;
       d.periodic           = prm.get_bool("Periodic");
       d.coarse_cells_x     = prm.get_integer("Coarse cells x");
       d.coarse_cells_y     = prm.get_integer("Coarse cells y");
