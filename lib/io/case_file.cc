@@ -79,6 +79,11 @@ namespace nappe
 
   void read_parameter_file(dealii::ParameterHandler &prm, const std::string &path)
   {
+    read_parameter_file(prm, path, DeclaredEntries(prm));
+  }
+
+  void read_parameter_file(dealii::ParameterHandler &prm, const std::string &path, const DeclaredEntries &declared)
+  {
     AssertThrow(fs::is_regular_file(path), dealii::ExcMessage("cannot read the parameter file '" + path +
                                                               "': " + (fs::exists(path) ? "not a regular file"
                                                                                         : "no such file")));
@@ -86,7 +91,7 @@ namespace nappe
     std::ostringstream text;
     text << in.rdbuf();
     AssertThrow(in, dealii::ExcMessage("cannot read the parameter file '" + path + "'."));
-    validate_parameter_text(prm, text.str(), path);
+    declared.check_text(text.str(), path);
     prm.parse_input_from_string(text.str(), path);
     const std::string directory = fs::absolute(path).parent_path().string();
     resolve_relative_paths(prm, directory);

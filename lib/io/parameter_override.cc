@@ -7,7 +7,13 @@ namespace nappe
 {
   void apply_override(dealii::ParameterHandler &prm, const std::string &assignment, const std::string &origin)
   {
-    validate_assignment(prm, assignment, origin);
+    apply_override(prm, DeclaredEntries(prm), assignment, origin);
+  }
+
+  void apply_override(dealii::ParameterHandler &prm, const DeclaredEntries &declared, const std::string &assignment,
+                      const std::string &origin)
+  {
+    declared.check_assignment(assignment, origin);
     const auto eq   = assignment.find('=');
     auto       path = dealii::Utilities::split_string_list(assignment.substr(0, eq), '/');
     const std::string entry = path.back();

@@ -16,21 +16,28 @@
 
 namespace nappe
 {
-  namespace
+  namespace internal
   {
     /// What is declared for one entry: its pattern description and whether it is a length in nm.
-    struct Declared
+    struct DeclaredEntry
     {
       std::string pattern;
       bool        in_nm = false;
     };
 
     /// The declared entries and subsections of one section.
-    struct Section
+    struct DeclaredSection
     {
-      std::map<std::string, Declared> entries;
-      std::map<std::string, Section>  sections;
+      std::map<std::string, DeclaredEntry>   entries;
+      std::map<std::string, DeclaredSection> sections;
     };
+  } // namespace internal
+
+  namespace
+  {
+    using Declared = internal::DeclaredEntry;
+
+    using Section = internal::DeclaredSection;
 
     /// A length below this is smaller than an atom by two orders: an entry in nm given in metres (common practice,
     /// no source) [nm].
@@ -167,8 +174,9 @@ namespace nappe
             check_length_scale(value, where, entry);
           return;
         }
-      std::string hint;
-      if (std::regex_match(value, std::regex(R"(\s*[-+]?[0-9.]+([eE][-+]?[0-9]+)?\s*[^\s0-9.,].*)")))
+      static const std::regex number_with_unit(R"(\s*[-+]?[0-9.]+([eE][-+]?[0-9]+)?\s*[^\s0-9.,].*)");
+      std::string             hint;
+      if (std::regex_match(value, number_with_unit))
         hint = "; write the number alone: the unit is fixed by the entry (see its description in --print-defaults)";
       fail(where, entry + " = '" + value + "': expected " + pattern_in_words(description) + hint);
     }
@@ -227,8 +235,10 @@ namespace nappe
 
   std::string pattern_in_words(const std::string &d)
   {
-    std::smatch m;
-    if (std::regex_match(d, m, std::regex(R"(\[Selection (.*) \])")))
+    static const std::regex selection(R"(\[Selection (.*) \])");
+    static const std::regex range(R"(\[(Double|Integer range) (.*)\.\.\.(.*) \(inclusive\)\])");
+    std::smatch             m;
+    if (std::regex_match(d, m, selection))
       {
         std::string list = m[1];
         for (std::size_t k = list.find('|'); k != std::string::npos; k = list.find('|'))
@@ -237,7 +247,7 @@ namespace nappe
       }
     if (d == "[Bool]")
       return "true or false";
-    if (std::regex_match(d, m, std::regex(R"(\[(Double|Integer range) (.*)\.\.\.(.*) \(inclusive\)\])")))
+    if (std::regex_match(d, m, range))
       {
         const std::string kind = m[1] == "Double" ? "a number" : "a whole number";
         const std::string low = m[2], high = m[3];
@@ -257,20 +267,26 @@ namespace nappe
     return d;
   }
 
-  void validate_parameter_text(const dealii::ParameterHandler &prm, const std::string &text,
-                               const std::string &file_name)
+  DeclaredEntries::DeclaredEntries(const dealii::ParameterHandler &prm)
+    : root(std::make_unique<const Section>(declared(prm)))
+  {}
+
+  DeclaredEntries::~DeclaredEntries() = default;
+
+  void DeclaredEntries::check_text(const std::string &text, const std::string &file_name) const
   {
-    const Section                               root = declared(prm);
-    std::vector<const Section *>                stack{&root};
-    std::vector<std::string>                    path;
-    std::vector<unsigned int>                   opened;
+    static const std::regex subsection_line(R"(subsection\s+(.*))");
+    static const std::regex set_line(R"(set\s+([^=]*?)\s*=\s*(.*))");
+    std::vector<const Section *> stack{root.get()};
+    std::vector<std::string>     path;
+    std::vector<unsigned int>    opened;
     for (const auto &[number, line] : logical_lines(text))
       {
         if (line.empty())
           continue;
         const std::string where = file_name + ":" + std::to_string(number);
         std::smatch       m;
-        if (std::regex_match(line, m, std::regex(R"(subsection\s+(.*))")))
+        if (std::regex_match(line, m, subsection_line))
           {
             const std::string name = dealii::Utilities::trim(m[1]);
             stack.push_back(&enter(*stack.back(), path, name, where));
@@ -285,8 +301,8 @@ namespace nappe
             path.pop_back();
             opened.pop_back();
           }
-        else if (std::regex_match(line, m, std::regex(R"(set\s+([^=]*?)\s*=\s*(.*))")))
-          check_entry(*stack.back(), path, m[1], dealii::Utilities::trim(m[2]), where, root);
+        else if (std::regex_match(line, m, set_line))
+          check_entry(*stack.back(), path, m[1], dealii::Utilities::trim(m[2]), where, *root);
         else if (line.rfind("include ", 0) != 0)
           fail(where, "expected 'set Entry = value', 'subsection Name' or 'end', found '" + line + "'");
       }
@@ -295,8 +311,7 @@ namespace nappe
            "subsection '" + path.back() + "' is never closed (an 'end' is missing)");
   }
 
-  void validate_assignment(const dealii::ParameterHandler &prm, const std::string &assignment,
-                           const std::string &origin)
+  void DeclaredEntries::check_assignment(const std::string &assignment, const std::string &origin) const
   {
     const auto eq = assignment.find('=');
     if (eq == std::string::npos)
@@ -304,8 +319,7 @@ namespace nappe
     auto parts = dealii::Utilities::split_string_list(assignment.substr(0, eq), '/');
     if (parts.size() < 2)
       fail(origin + " '" + assignment + "'", "expected Section/Entry=value");
-    const Section            root = declared(prm);
-    const Section           *here = &root;
+    const Section           *here = root.get();
     std::vector<std::string> path;
     const std::string        where = origin + " '" + assignment + "'";
     for (std::size_t k = 0; k + 1 < parts.size(); ++k)
@@ -313,6 +327,18 @@ namespace nappe
         here = &enter(*here, path, parts[k], where);
         path.push_back(parts[k]);
       }
-    check_entry(*here, path, parts.back(), dealii::Utilities::trim(assignment.substr(eq + 1)), where, root);
+    check_entry(*here, path, parts.back(), dealii::Utilities::trim(assignment.substr(eq + 1)), where, *root);
+  }
+
+  void validate_parameter_text(const dealii::ParameterHandler &prm, const std::string &text,
+                               const std::string &file_name)
+  {
+    DeclaredEntries(prm).check_text(text, file_name);
+  }
+
+  void validate_assignment(const dealii::ParameterHandler &prm, const std::string &assignment,
+                           const std::string &origin)
+  {
+    DeclaredEntries(prm).check_assignment(assignment, origin);
   }
 } // namespace nappe

@@ -140,6 +140,68 @@ namespace nappe
     return v;
   }
 
+  namespace
+  {
+    /// The entries that @p declare declares, read once.
+    template <void (*declare)(dealii::ParameterHandler &)>
+    const DeclaredEntries &entries_of()
+    {
+      static const DeclaredEntries entries = [] {
+        dealii::ParameterHandler prm;
+        declare(prm);
+        return DeclaredEntries(prm);
+      }();
+      return entries;
+    }
+
+    /// The entries of a case file: every point's handler declares exactly these.
+    const DeclaredEntries &case_entries()
+    {
+      return entries_of<declare_sheet_case_parameters>();
+    }
+
+    /// The case-file handler every point starts from: base case file and fixed overrides.
+    void base_parameters(const SweepSpec &spec, dealii::ParameterHandler &prm)
+    {
+      declare_sheet_case_parameters(prm);
+      read_parameter_file(prm, spec.case_file, case_entries());
+      for (const auto &o : spec.overrides)
+        apply_override(prm, case_entries(), o, spec.sweep_file + ": Sweep/Case overrides");
+    }
+
+    /// Sets every axis entry to point @p point's value; relative paths are relative to the sweep file.
+    void set_point(const SweepSpec &spec, unsigned int point, dealii::ParameterHandler &prm)
+    {
+      const auto indices = spec.indices(point);
+      for (std::size_t a = 0; a < spec.axes.size(); ++a)
+        for (const auto &entry : spec.axes[a].entries)
+          apply_override(prm, case_entries(), entry + "=" + spec.axes[a].values[indices[a]],
+                         spec.sweep_file + ": Sweep/Axis " + std::to_string(a + 1));
+      resolve_relative_paths(prm, fs::absolute(spec.sweep_file).parent_path().string());
+    }
+
+    /// Parses every point's case, naming the first that fails. One handler serves all points: each
+    /// point sets every axis entry, and resolving paths twice changes nothing, so the handler holds
+    /// exactly point_parameters() of each point (declaring the ~230 entries anew per point made a
+    /// long sweep take seconds to check).
+    void check_every_point(const SweepSpec &spec)
+    {
+      dealii::ParameterHandler prm;
+      base_parameters(spec, prm);
+      for (unsigned int p = 1; p <= spec.n_points(); ++p)
+        try
+          {
+            set_point(spec, p, prm);
+            (void)parse_sheet_case(prm);
+          }
+        catch (const std::exception &e)
+          {
+            AssertThrow(false, ExcMessage(spec.sweep_file + ": point " + std::to_string(p) +
+                                          " is not a valid case: " + user_message(e)));
+          }
+    }
+  } // namespace
+
   void declare_sweep_parameters(dealii::ParameterHandler &prm)
   {
     prm.enter_subsection("Sweep");
@@ -164,7 +226,7 @@ namespace nappe
   {
     dealii::ParameterHandler prm;
     declare_sweep_parameters(prm);
-    read_parameter_file(prm, sweep_file);
+    read_parameter_file(prm, sweep_file, entries_of<declare_sweep_parameters>());
     const fs::path here = fs::absolute(sweep_file).parent_path();
     SweepSpec      spec;
     spec.sweep_file = sweep_file;
@@ -188,31 +250,14 @@ namespace nappe
                 ExcMessage(sweep_file + ": the sweep has " + std::to_string(spec.n_points()) +
                            " points, more than Sweep/Point limit = " + std::to_string(spec.point_limit) +
                            "; raise the limit if you mean it."));
-    for (unsigned int p = 1; p <= spec.n_points(); ++p)
-      try
-        {
-          point_case(spec, p);
-        }
-      catch (const std::exception &e)
-        {
-          AssertThrow(false, ExcMessage(sweep_file + ": point " + std::to_string(p) + " is not a valid case: " +
-                                        user_message(e)));
-        }
+    check_every_point(spec);
     return spec;
   }
 
   void point_parameters(const SweepSpec &spec, unsigned int point, dealii::ParameterHandler &prm)
   {
-    declare_sheet_case_parameters(prm);
-    read_parameter_file(prm, spec.case_file);
-    for (const auto &o : spec.overrides)
-      apply_override(prm, o, spec.sweep_file + ": Sweep/Case overrides");
-    const auto indices = spec.indices(point);
-    for (std::size_t a = 0; a < spec.axes.size(); ++a)
-      for (const auto &entry : spec.axes[a].entries)
-        apply_override(prm, entry + "=" + spec.axes[a].values[indices[a]],
-                       spec.sweep_file + ": Sweep/Axis " + std::to_string(a + 1));
-    resolve_relative_paths(prm, fs::absolute(spec.sweep_file).parent_path().string());
+    base_parameters(spec, prm);
+    set_point(spec, point, prm);
   }
 
   SheetCase point_case(const SweepSpec &spec, unsigned int point)

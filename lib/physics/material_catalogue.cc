@@ -10,6 +10,8 @@
 #include <cstdlib>
 #include <fstream>
 #include <iomanip>
+#include <mutex>
+#include <optional>
 #include <ostream>
 #include <sstream>
 
@@ -238,7 +240,10 @@ namespace nappe
   {}
 
   MaterialCatalogue::MaterialCatalogue(const std::string &path)
-    : file_path(path)
+    : MaterialCatalogue(loaded(path))
+  {}
+
+  MaterialCatalogue MaterialCatalogue::loaded(const std::string &path)
   {
     std::ifstream file(path);
     AssertThrow(file.good(), dealii::ExcMessage("MaterialCatalogue: cannot open the catalogue file <" + path +
@@ -246,7 +251,24 @@ namespace nappe
                                                 "environment variable NAPPE_DATA_DIR to the directory "
                                                 "holding materials.prm."));
     const std::string text((std::istreambuf_iterator<char>(file)), std::istreambuf_iterator<char>());
+    // Reading declares every entry of every material (milliseconds), and a sweep reads one case per
+    // point: the last catalogue read is kept, and used again while its file's text is the same.
+    static std::mutex                       mutex;
+    static std::string                      last_path, last_text;
+    static std::optional<MaterialCatalogue> last;
+    const std::lock_guard<std::mutex>       lock(mutex);
+    if (!last || path != last_path || text != last_text)
+      {
+        last      = MaterialCatalogue(path, text);
+        last_path = path;
+        last_text = text;
+      }
+    return *last;
+  }
 
+  MaterialCatalogue::MaterialCatalogue(const std::string &path, const std::string &text)
+    : file_path(path)
+  {
     std::vector<std::string> material_sections, interface_sections;
     scan_subsections(text, material_sections, interface_sections);
     AssertThrow(!material_sections.empty(),

@@ -201,6 +201,18 @@ TEST(MaterialCatalogue, LoadsAnExplicitPath)
   EXPECT_DOUBLE_EQ(catalogue.work_of_adhesion("foil", "glass"), 0.2);
 }
 
+TEST(MaterialCatalogue, ReadsAFileAgainWhenItsTextChanged)
+{
+  // The last catalogue read is kept for its path and text (a sweep reads one case per point); an edit
+  // between two reads must be seen.
+  const std::string path = write_file("nappe_edited_catalogue.prm", small_catalogue);
+  EXPECT_DOUBLE_EQ(MaterialCatalogue(path).material("foil").youngs_modulus_2d, 100.0);
+  std::string text = small_catalogue;
+  text.replace(text.find("= 100"), 5, "= 120");
+  write_file("nappe_edited_catalogue.prm", text);
+  EXPECT_DOUBLE_EQ(MaterialCatalogue(path).material("foil").youngs_modulus_2d, 120.0);
+}
+
 TEST(MaterialCatalogue, MissingFileGivesAnErrorNamingThePath)
 {
   const std::string msg = message_of([] { MaterialCatalogue("/nonexistent/dir/materials.prm"); });

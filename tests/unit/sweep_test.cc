@@ -155,6 +155,19 @@ TEST(SweepFile, RejectsRepeatedValuesAndOversizedSweepsBeforeAnyWork)
   EXPECT_NE(message_of([&] { read_sweep(limited.sweep()); }).find("Point limit = 2"), std::string::npos);
 }
 
+TEST(SweepFile, NamesTheFirstPointWhoseCaseIsInvalid)
+{
+  // Every point is checked when the file is read (one handler serves all points).
+  const Scratch     s("graphene, MoS2, unobtainium, hBN", "", "Sheet/Material");
+  const std::string m = message_of([&] { read_sweep(s.sweep()); });
+  EXPECT_NE(m.find("point 3 is not a valid case"), std::string::npos) << m;
+  EXPECT_NE(m.find("unobtainium"), std::string::npos) << m;
+  const Scratch     valid("graphene, MoS2, WSe2", "", "Sheet/Material");
+  const SweepSpec   spec = read_sweep(valid.sweep());
+  EXPECT_EQ(point_case(spec, 3).problem.model.material.name, "WSe2");
+  EXPECT_EQ(point_case(spec, 1).problem.model.material.name, "graphene");
+}
+
 TEST(SweepFile, FingerprintFollowsEveryInputThatChangesAResult)
 {
   const Scratch     s("10, 20");

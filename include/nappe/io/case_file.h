@@ -2,6 +2,8 @@
 
 #include <deal.II/base/parameter_handler.h>
 
+#include <nappe/io/parameter_validation.h>
+
 #include <string>
 #include <vector>
 
@@ -13,6 +15,9 @@ namespace nappe
    * a relative path means relative to the file that names it, everywhere in nappe.
    */
   void read_parameter_file(dealii::ParameterHandler &prm, const std::string &path);
+
+  /// The same, checked against @p declared, the entries declared in @p prm read beforehand.
+  void read_parameter_file(dealii::ParameterHandler &prm, const std::string &path, const DeclaredEntries &declared);
 
   /// As read_parameter_file() for text that is not a file (e.g. a built-in demo case named @p name);
   /// relative paths stay relative to the working directory.

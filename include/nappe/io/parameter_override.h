@@ -3,6 +3,7 @@
 #include <deal.II/base/parameter_handler.h>
 
 #include <nappe/base/collective.h>
+#include <nappe/io/parameter_validation.h>
 
 #include <string>
 
@@ -15,4 +16,8 @@ namespace nappe
    */
   void apply_override(dealii::ParameterHandler &prm, const std::string &assignment,
                       const std::string &origin = "--set");
+
+  /// The same, checked against entries read once from @p prm (for many assignments to one handler).
+  void apply_override(dealii::ParameterHandler &prm, const DeclaredEntries &declared, const std::string &assignment,
+                      const std::string &origin);
 } // namespace nappe

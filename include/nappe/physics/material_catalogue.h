@@ -81,6 +81,12 @@ namespace nappe
     void print(std::ostream &out) const;
 
   private:
+    /// Parses @p text, the contents of the catalogue file @p path.
+    MaterialCatalogue(const std::string &path, const std::string &text);
+
+    /// The catalogue in the file @p path (parsed again only when the file's text changed).
+    static MaterialCatalogue loaded(const std::string &path);
+
     std::string                file_path;
     std::vector<SheetMaterial> materials;
     std::vector<Interface>     interface_list;
