@@ -7,6 +7,7 @@
 #include <nappe/io/sheet_report.h>
 #include <nappe/physics/adhesion_potential.h>
 
+#include <algorithm>
 #include <cmath>
 #include <iomanip>
 #include <sstream>
@@ -16,6 +17,21 @@ namespace nappe
   namespace
   {
     const double nm = units::nanometer;
+
+    // Printed values below these are the round-off of a sheet that is not deformed (a flat conformed
+    // sheet used to print a peak strain of 4e-32 %) and are printed as 0: far below anything measurable,
+    // far above double-precision noise (common practice, no source).
+    const double strain_resolution          = 1e-10;                      // 1
+    const double length_resolution          = 1e-15;                      // m
+    const double electronic_resolution      = 1e-9 * units::electronvolt; // J
+    const double field_resolution           = 1e-6;                       // T
+    const double relative_energy_resolution = 1e-12;                      // of the largest term
+
+    /// @p value, or 0 where its magnitude is below @p resolution.
+    double shown(const double value, const double resolution)
+    {
+      return std::abs(value) < resolution ? 0.0 : value;
+    }
 
     std::string regime_of(const SheetCase &c, const ConformationMeasures &m)
     {
@@ -274,15 +290,19 @@ namespace nappe
     {
       bool any = false;
       if (const auto *B = measured(m, "max_pseudo_magnetic_field_K"))
-        out << "Pseudo-magnetic field:  largest |B| " << std::abs(B->value) << " T at " << at(*B)
-            << " (valley K: B = " << B->value << " T; valley K' has -B)\n",
+        out << "Pseudo-magnetic field:  largest |B| " << shown(std::abs(B->value), field_resolution) << " T at "
+            << at(*B) << " (valley K: B = " << shown(B->value, field_resolution) << " T; valley K' has -B)\n",
           any = true;
       const auto range = [&](const char *label, const std::string &name, double unit, const char *unit_name) {
         const auto *lo = measured(m, "min_" + name), *hi = measured(m, "max_" + name);
         if (!lo || !hi)
           return;
-        out << label << lo->value / unit << " to " << hi->value / unit << " " << unit_name << " (lowest at " << at(*lo)
-            << ", highest at " << at(*hi) << ")\n";
+        const double low = shown(lo->value, electronic_resolution), high = shown(hi->value, electronic_resolution);
+        if (low == 0.0 && high == 0.0)
+          out << label << "0 " << unit_name << " everywhere\n";
+        else
+          out << label << low / unit << " to " << high / unit << " " << unit_name << " (lowest at " << at(*lo)
+              << ", highest at " << at(*hi) << ")\n";
         any = true;
       };
       range("Deformation potential:  ", "deformation_potential", units::electronvolt, "eV");
@@ -312,10 +332,12 @@ namespace nappe
             << " nm\n";
       }
     const auto &w = m.at("max_deflection"), &e1 = m.at("max_principal_strain");
-    out << "Max deflection:         " << w.value / nm << " nm at (" << w.location[0] / nm << ", " << w.location[1] / nm
+    out << "Max deflection:         " << shown(w.value, length_resolution) / nm << " nm at (" << w.location[0] / nm << ", " << w.location[1] / nm
         << ") nm\n";
-    out << "Peak principal strain:  " << 100 * e1.value << " % at (" << e1.location[0] / nm << ", "
-        << e1.location[1] / nm << ") nm";
+    if (const double peak = shown(e1.value, strain_resolution); peak != 0.0)
+      out << "Peak principal strain:  " << 100 * peak << " % at " << at(e1);
+    else
+      out << "Peak principal strain:  0 % (unstrained)";
     const SheetMaterial &sheet = c.problem.model.material;
     if (sheet.fracture_strain > 0)
       out << "; fracture strain of " << sheet.name << " " << 100 * sheet.fracture_strain << " %";
@@ -324,12 +346,16 @@ namespace nappe
     out << "\n";
     for (const auto &warning : r.warnings)
       out << "WARNING: " << warning << "\n";
-    out << "Largest areal strain:   " << 100 * m.at("max_areal_strain").value << " %\n";
-    out << "Largest shear strain:   " << 100 * m.at("max_shear_strain").value << " %\n";
+    out << "Largest areal strain:   " << 100 * shown(m.at("max_areal_strain").value, strain_resolution) << " %\n";
+    out << "Largest shear strain:   " << 100 * shown(m.at("max_shear_strain").value, strain_resolution) << " %\n";
     print_electronic_estimates(m, out);
-    out << "Energy (aJ): stretching " << r.energy.stretching / 1e-18 << ", bending " << r.energy.bending / 1e-18
-        << ", substrate " << r.energy.substrate / 1e-18 << ", external work " << r.energy.external_work / 1e-18
-        << ", total " << r.energy.total() / 1e-18 << "\n";
+    const auto  &E      = r.energy;
+    const double scale  = std::max({std::abs(E.stretching), std::abs(E.bending), std::abs(E.substrate),
+                                    std::abs(E.external_work)});
+    const auto   energy = [&](const double value) { return shown(value, relative_energy_resolution * scale) / 1e-18; };
+    out << "Energy (aJ): stretching " << energy(E.stretching) << ", bending " << energy(E.bending) << ", substrate "
+        << energy(E.substrate) << ", external work " << energy(E.external_work) << ", total " << energy(E.total())
+        << "\n";
     print_mesh_adaptation(r, out);
     const SolverSettings used       = resolved(c.problem.solver, r.unknowns, r.meshes.size() > 1);
     const bool           by_inertia = used.certificate == "LDLT inertia";
