@@ -4,6 +4,7 @@
 #include <nappe/analysis/adhesion_limits.h>
 #include <nappe/analysis/state_summary.h>
 #include <nappe/base/collective.h>
+#include <nappe/io/case_checks.h>
 #include <nappe/io/limits_report.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/runs/case_run.h>
@@ -171,6 +172,9 @@ namespace nappe
     try
       {
         const SheetCase c = point_case(spec, point);
+        // The checks nappe-solve makes before solving (a slope no sheet model admits, a topography that
+        // is not finite, a mesh beyond the memory limit): such a point fails with their message.
+        check_case_inputs(c, resolution_report(c));
         r.fracture_strain = c.problem.model.material.fracture_strain;
         if (const AdhesionPotential *a = c.problem.model.adhesion())
           r.work_of_adhesion = a->law().work_of_adhesion();

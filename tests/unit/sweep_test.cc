@@ -246,6 +246,17 @@ TEST(SweepRecords, KeepOnlyTheRowWrittenForTheirPoint)
   EXPECT_NE(refusal(spec, columns, 2, text).find("another point's number"), std::string::npos);
 }
 
+TEST(SweepRun, APointOnASurfaceTooSteepForASheetModelFailsNamingTheSlope)
+{
+  // The checks nappe-solve makes before solving apply to every point: a 500 nm amplitude on a 20 nm
+  // grating (slope 157) used to be computed and reported "ok".
+  const Scratch     s("1, 500", "", "Topography/Sinusoidal grating/Amplitude", grating_text);
+  const SweepSpec   spec  = read_sweep(s.sweep());
+  const PointRecord steep = compute_sweep_point(spec, 2);
+  EXPECT_FALSE(steep.ok);
+  EXPECT_NE(steep.message.find("steeper than 84"), std::string::npos) << steep.message;
+}
+
 TEST(SweepRun, AFolderLockedByALiveProcessIsRefused)
 {
   const Scratch   s("10");
