@@ -1,4 +1,5 @@
 #include <deal.II/base/timer.h>
+#include <deal.II/base/utilities.h>
 
 #include <nappe/solvers/load_stepping.h>
 #include <nappe/solvers/mesh_adaptation.h>
@@ -314,8 +315,9 @@ namespace nappe
   {
     AssertThrow(s.lowest_work_of_adhesion > 0 && s.highest_work_of_adhesion > s.lowest_work_of_adhesion,
                 dealii::ExcMessage("Adhesion limits/Lowest work of adhesion, Highest work of adhesion: "
-                                   "expected 0 < lowest < highest, found " + std::to_string(s.lowest_work_of_adhesion) + " and " +
-                                   std::to_string(s.highest_work_of_adhesion) + " J/m^2."));
+                                   "expected 0 < lowest < highest, found " +
+                                   dealii::Utilities::to_string(s.lowest_work_of_adhesion) + " and " +
+                                   dealii::Utilities::to_string(s.highest_work_of_adhesion) + " J/m^2."));
     AssertThrow(s.target_fraction > 0 && s.target_fraction <= 1,
                 dealii::ExcMessage("Adhesion limits/Target conformed fraction: expected a number in (0, 1]."));
     AssertThrow(s.relative_tolerance > 0 && s.initial_step >= s.relative_tolerance &&
