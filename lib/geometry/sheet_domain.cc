@@ -1,3 +1,4 @@
+#include <deal.II/base/utilities.h>
 #include <deal.II/grid/grid_generator.h>
 #include <deal.II/grid/grid_in.h>
 #include <deal.II/grid/grid_tools.h>
@@ -63,7 +64,7 @@ namespace nappe
       const std::string &file = d.mesh_file;
       AssertThrow(!file.empty(), ExcMessage("Domain shape 'mesh file' needs a mesh file name (Domain/Mesh file)."));
       AssertThrow(d.mesh_scale > 0.0, ExcMessage("The mesh scale of '" + file + "' must be positive; got " +
-                                                 std::to_string(d.mesh_scale) + "."));
+                                                 dealii::Utilities::to_string(d.mesh_scale) + "."));
       // GridIn trusts its input; the check names the line of anything it could misread.
       check_gmsh_file(file);
       std::ifstream in(file);

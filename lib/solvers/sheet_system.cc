@@ -347,8 +347,8 @@ namespace nappe
       {
       }
     const unsigned int owner = Utilities::MPI::min(here ? rank : n_ranks, comm_);
-    AssertThrow(owner < n_ranks, ExcMessage("The point (" + std::to_string(p[0] / 1e-9) + ", " +
-                                            std::to_string(p[1] / 1e-9) + ") nm lies outside the sheet."));
+    AssertThrow(owner < n_ranks, ExcMessage("The point (" + Utilities::to_string(p[0] / 1e-9) + ", " +
+                                            Utilities::to_string(p[1] / 1e-9) + ") nm lies outside the sheet."));
     PointEvaluation eval;
     if (owner == rank)
       {
