@@ -12,6 +12,7 @@
 #include <nappe/geometry/topography_factory.h>
 #include <nappe/geometry/transformed_topography.h>
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <mutex>
@@ -42,6 +43,35 @@ namespace nappe::TopographyFactory
     /// Bound of every length entry [nm]: max_topography_height (1 mm), so that a mistyped exponent
     /// (e.g. a height of 1e308) is refused where it is read, naming the entry and the range.
     constexpr double max_length_nm = max_topography_height / nm;
+
+    /// A scan whose node spacing or height range is below this is read in the wrong unit: 0.001 nm is
+    /// two orders below an atom (common practice, no source) [m].
+    constexpr double sub_atomic_length = 1e-3 * nm;
+
+    /// Refuses a height map whose spacing or height range is sub-atomic: a scan exported in metres and
+    /// read in nm would otherwise be a flat surface, and the run a plausible, wrong "conforms".
+    void check_scan_units(const HeightMap &map, ParameterHandler &prm)
+    {
+      const std::string where = "Topography/Height map/";
+      for (unsigned int d = 0; d < 2; ++d)
+        AssertThrow(map.spacing()[d] >= sub_atomic_length,
+                    dealii::ExcMessage(where + "File '" + prm.get("File") + "': the node spacing along " +
+                                       (d == 0 ? "x" : "y") + " is " + internal::nm(map.spacing()[d]) +
+                                       ", far smaller than an atom; is Length unit = " + prm.get("Length unit") +
+                                       " right? (a spacing written in metres needs Length unit = m)"));
+      double lowest = map.node_value(0, 0), highest = lowest;
+      for (unsigned int j = 0; j < map.n_points_y(); ++j)
+        for (unsigned int i = 0; i < map.n_points_x(); ++i)
+          {
+            lowest  = std::min(lowest, map.node_value(i, j));
+            highest = std::max(highest, map.node_value(i, j));
+          }
+      AssertThrow(highest == lowest || highest - lowest >= sub_atomic_length,
+                  dealii::ExcMessage(where + "File '" + prm.get("File") + "': the heights span only " +
+                                     internal::nm(highest - lowest) + ", far less than an atom; is Height unit = " +
+                                     prm.get("Height unit") + " right? (heights written in metres need Height "
+                                     "unit = m)"));
+    }
 
     /// A length entry in [lower, 1e6] nm, or in [−1e6, 1e6] nm when @p signed_length.
     void declare_length(ParameterHandler &prm, const std::string &name, const std::string &value,
@@ -242,6 +272,7 @@ namespace nappe::TopographyFactory
                         dealii::ExcMessage("Topography/Height map/Spacing x and Spacing y must be positive for the "
                                            "matrix format"));
           auto map = std::make_unique<HeightMap>(HeightMap::read(file, o));
+          check_scan_units(*map, prm);
           if (prm.get("Levelling") == "plane")
             map->level_plane();
           map->smooth(prm.get_double("Smoothing width") * nm);
