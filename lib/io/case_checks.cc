@@ -81,12 +81,12 @@ namespace nappe
 
     void check_output_directory(const std::string &directory)
     {
-      AssertThrow(fs::is_directory(directory),
+      std::error_code ignored; // a name the system refuses (e.g. too long) is a missing folder
+      AssertThrow(fs::is_directory(directory, ignored),
                   dealii::ExcMessage("Output/Directory: '" + directory + "' does not exist (create it first)."));
       const fs::path probe = fs::path(directory) / (".nappe-write-test-" + std::to_string(::getpid()));
       std::ofstream(probe.string()) << "x";
-      const bool writable = fs::exists(probe);
-      std::error_code ignored;
+      const bool writable = fs::exists(probe, ignored);
       fs::remove(probe, ignored);
       AssertThrow(writable, dealii::ExcMessage("Output/Directory: cannot write into '" + directory + "'."));
     }

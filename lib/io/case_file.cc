@@ -84,9 +84,14 @@ namespace nappe
 
   void read_parameter_file(dealii::ParameterHandler &prm, const std::string &path, const DeclaredEntries &declared)
   {
-    AssertThrow(fs::is_regular_file(path), dealii::ExcMessage("cannot read the parameter file '" + path +
-                                                              "': " + (fs::exists(path) ? "not a regular file"
-                                                                                        : "no such file")));
+    // The overloads with an error code: a name the system refuses (e.g. too long) is a missing file here.
+    std::error_code       error;
+    const fs::file_status status = fs::status(path, error);
+    AssertThrow(fs::is_regular_file(status),
+                dealii::ExcMessage("cannot read the parameter file '" + path + "': " +
+                                   (fs::exists(status)                               ? "not a regular file" :
+                                    error && error != std::errc::no_such_file_or_directory ? error.message() :
+                                                                                          "no such file")));
     std::ifstream      in(path);
     std::ostringstream text;
     text << in.rdbuf();

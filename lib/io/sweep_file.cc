@@ -244,8 +244,12 @@ namespace nappe
     AssertThrow(!case_file.empty(), ExcMessage(sweep_file + ": Sweep/Case file: expected the base case file."));
     spec.case_file = (here / case_file).lexically_normal().string();
     AssertThrow(!spec.axes.empty(), ExcMessage(sweep_file + ": Sweep/Axis 1/Entries: expected at least one entry."));
-    AssertThrow(fs::is_regular_file(spec.case_file),
-                ExcMessage(sweep_file + ": Sweep/Case file: '" + spec.case_file + "' does not exist."));
+    std::error_code error; // a name the system refuses (e.g. too long) does not exist either
+    AssertThrow(fs::is_regular_file(spec.case_file, error),
+                ExcMessage(sweep_file + ": Sweep/Case file: '" + spec.case_file + "' does not exist" +
+                           (error && error != std::errc::no_such_file_or_directory ? " (" + error.message() + ")" :
+                                                                                     std::string()) +
+                           "."));
     AssertThrow(spec.n_points() <= spec.point_limit,
                 ExcMessage(sweep_file + ": the sweep has " + std::to_string(spec.n_points()) +
                            " points, more than Sweep/Point limit = " + std::to_string(spec.point_limit) +
@@ -279,9 +283,10 @@ namespace nappe
     prm.print_parameters(resolved, dealii::ParameterHandler::ShortPRM);
     std::uint64_t hash = fnv1a("nappe " + version() + (spec.thresholds ? " thresholds\n" : " single solve\n"));
     hash               = fnv1a(resolved.str(), hash);
+    std::error_code error; // a file that cannot be checked is not part of the fingerprint
     for (const auto &entry : file_entries())
       if (entry != "Output/Directory")
-        if (const std::string path = entry_text(prm, entry); !path.empty() && fs::is_regular_file(path))
+        if (const std::string path = entry_text(prm, entry); !path.empty() && fs::is_regular_file(path, error))
           hash = fnv1a(file_contents(path), hash);
     hash = fnv1a(file_contents(MaterialCatalogue::default_path()), hash);
     std::ostringstream hex;

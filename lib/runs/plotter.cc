@@ -23,15 +23,17 @@ namespace nappe
     if (const char *python = std::getenv("NAPPE_PYTHON"); python && *python)
       return python;
     const std::string configured = NAPPE_PLOT_PYTHON;
-    return !configured.empty() && fs::exists(configured) ? configured : "python3";
+    std::error_code   ignored;
+    return !configured.empty() && fs::exists(configured, ignored) ? configured : "python3";
   }
 
   std::string plot_script(const std::string &name)
   {
-    const char *data = std::getenv("NAPPE_DATA_DIR");
+    const char     *data = std::getenv("NAPPE_DATA_DIR");
+    std::error_code ignored; // a variable naming no usable folder is skipped
     for (const std::string &dir : {std::string(data ? data : ""), std::string(NAPPE_INSTALLED_DATA_DIR),
                                   std::string(NAPPE_SCRIPTS_DIR)})
-      if (!dir.empty() && fs::exists(fs::path(dir) / name))
+      if (!dir.empty() && fs::exists(fs::path(dir) / name, ignored))
         return (fs::path(dir) / name).string();
     return {};
   }

@@ -73,9 +73,9 @@ namespace nappe
     try
       {
         run_collectively(comm, [&] {
-          std::error_code error;
+          std::error_code error, unchecked;
           fs::create_directories(fs::path(directory) / "points", error);
-          AssertThrow(fs::is_directory(fs::path(directory) / "points"),
+          AssertThrow(fs::is_directory(fs::path(directory) / "points", unchecked),
                       dealii::ExcMessage("Sweep/Output directory: cannot create '" + directory + "/points'" +
                                          (error ? ": " + error.message() : std::string()) + "."));
           if (root)

@@ -168,6 +168,25 @@ TEST(SweepFile, NamesTheFirstPointWhoseCaseIsInvalid)
   EXPECT_EQ(point_case(spec, 1).problem.model.material.name, "graphene");
 }
 
+TEST(SweepFile, ACaseFileNameTooLongForTheSystemIsAMissingFile)
+{
+  // Found by the sweep-file fuzz target: the file system's "File name too long" escaped as a bare
+  // std::filesystem error instead of nappe's message naming the entry.
+  const Scratch s("10, 20");
+  const std::string name(300, 'c');
+  std::ofstream(s.dir / "long.prm") << "subsection Sweep\n  set Case file = " << name << "\n  subsection Axis 1\n"
+                                    << "    set Entries = Loads/Pressure\n    set Values = 1, 2\n  end\nend\n";
+  const std::string m = message_of([&] { read_sweep((s.dir / "long.prm").string()); });
+  EXPECT_NE(m.find("Sweep/Case file: '"), std::string::npos) << m;
+  EXPECT_NE(m.find("does not exist (File name too long)"), std::string::npos) << m;
+  const std::string c = message_of([&] {
+    dealii::ParameterHandler prm;
+    read_parameter_file(prm, (s.dir / name).string());
+  });
+  EXPECT_NE(c.find("cannot read the parameter file"), std::string::npos) << c;
+  EXPECT_NE(c.find("File name too long"), std::string::npos) << c;
+}
+
 TEST(SweepFile, FingerprintFollowsEveryInputThatChangesAResult)
 {
   const Scratch     s("10, 20");
