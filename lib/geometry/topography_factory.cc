@@ -296,7 +296,14 @@ namespace nappe::TopographyFactory
           o.outside        = prm.get("Outside") == "constant" ? StlTopography::Outside::constant
                                                               : StlTopography::Outside::error;
           o.outside_height = prm.get_double("Outside height") * nm;
-          return std::make_unique<StlTopography>(file, o);
+          auto stl         = std::make_unique<StlTopography>(file, o);
+          const dealii::Tensor<1, 2> extent = stl->footprint_upper() - stl->footprint_lower();
+          AssertThrow(std::max(extent[0], extent[1]) >= sub_atomic_length,
+                      dealii::ExcMessage("Topography/STL/File '" + file + "': the footprint spans only " +
+                                         internal::nm(std::max(extent[0], extent[1])) +
+                                         ", far less than an atom; is Length unit = " + prm.get("Length unit") +
+                                         " right? (an STL in mm needs Length unit = mm)"));
+          return stl;
         }};
     }
 
