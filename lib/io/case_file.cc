@@ -87,11 +87,13 @@ namespace nappe
     // The overloads with an error code: a name the system refuses (e.g. too long) is a missing file here.
     std::error_code       error;
     const fs::file_status status = fs::status(path, error);
+    std::string problem = "no such file";
+    if (fs::exists(status))
+      problem = "not a regular file";
+    else if (error && error != std::errc::no_such_file_or_directory)
+      problem = error.message();
     AssertThrow(fs::is_regular_file(status),
-                dealii::ExcMessage("cannot read the parameter file '" + path + "': " +
-                                   (fs::exists(status)                               ? "not a regular file" :
-                                    error && error != std::errc::no_such_file_or_directory ? error.message() :
-                                                                                          "no such file")));
+                dealii::ExcMessage("cannot read the parameter file '" + path + "': " + problem));
     std::ifstream      in(path);
     std::ostringstream text;
     text << in.rdbuf();
