@@ -198,4 +198,22 @@ namespace nappe
       m.histograms.push_back(make_histogram(histogrammed[h]->histogram_label, samples[h], histogram_bins, comm));
     return m;
   }
+
+  double graded_conformed_fraction(const SheetSystem &system, const Vector &state, const LoadLevel &level)
+  {
+    const AdhesionPotential *adhesion = system.model().adhesion();
+    AssertThrow(adhesion, ExcMessage("Conformation measures need an adhesion substrate."));
+    const double peak = adhesion->law().peak_traction_gap(), ramp = adhesion->law().equilibrium_gap();
+    double       graded = 0.0, area = 0.0;
+    for_each_cell(system, state, level, [&](const CellPoints &cp) {
+      for (std::size_t q = 0; q < cp.points.size(); ++q)
+        {
+          const double g = adhesion->gap(cp.points[q].x, cp.points[q].w);
+          graded += cp.weights[q] * std::clamp((peak + ramp - g) / ramp, 0.0, 1.0);
+          area += cp.weights[q];
+        }
+    });
+    const MPI_Comm comm = system.communicator();
+    return Utilities::MPI::sum(graded, comm) / Utilities::MPI::sum(area, comm);
+  }
 } // namespace nappe

@@ -41,9 +41,7 @@ namespace nappe
       const ConformationMeasures c = measure_conformation(system, state, level, 1);
       return StateSummary{c.conformed_fraction, summary_values(measure_sheet(system, state, level), &c)};
     };
-    m.fraction = [](const SheetSystem &system, const Vector &state, const LoadLevel &level) {
-      return measure_conformation(system, state, level, 1).conformed_fraction;
-    };
+    m.fraction = graded_conformed_fraction;
     return m;
   }
 

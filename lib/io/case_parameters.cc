@@ -41,7 +41,8 @@ namespace nappe
                         "First continuation step in ln Gamma [-].");
       prm.declare_entry("Largest step", "0.1", Patterns::Double(1e-6, 2), "Largest step in ln Gamma [-].");
       prm.declare_entry("Largest fraction change", "0.02", Patterns::Double(1e-4, 1),
-                        "A step stays on its branch only if the conformed fraction changes by at most this [-].");
+                        "A step stays on its branch only if its share of contact (the conformed fraction with a graded "
+                        "edge, docs/theory.md) differs from the predicted one by at most this [-].");
       prm.declare_entry("Largest deflection change", "1", Patterns::Double(1e-3, 100),
                         "A step stays on its branch only if the deflection changes nowhere by more than this many "
                         "equilibrium separations h0 [-].");

@@ -210,7 +210,7 @@ namespace nappe::internal
         corrected = predicted;
         // A trial that is not the confirmation of a jump only has to tell whether it stays on the
         // branch: the corrector stops once an iterate is four times farther from the prediction (in
-        // w or in conformed fraction) than what counts as leaving it, once it met an indefinite
+        // w or in share of contact) than what counts as leaving it, once it met an indefinite
         // Hessian (the certified states of a branch and their neighbourhood have none), or after
         // twice the iterations a step should cost (common practice, no source: a corrector that slow
         // is rejected and the step shortened). A wrong call only costs the confirmation's solve.
@@ -225,6 +225,10 @@ namespace nappe::internal
         MinimizerReport report = minimizer_->minimize(corrected, level(trial_gamma), 0.0,
                                                       confirming ? EnergyMinimizer::IterateCheck() : near_branch);
         ++path.solves;
+        // A confirmation crosses the whole snap-through, which can take longer than the iteration
+        // budget of a step: where the budget ran out, it goes on from where it stopped, up to three times.
+        for (unsigned int more = 0; confirming && report.out_of_iterations && more < 3; ++more, ++path.solves)
+          report = minimizer_->minimize(corrected, level(trial_gamma), 0.0);
         Trial t;
         t.gamma      = trial_gamma;
         t.from_gamma = lo.gamma;
@@ -254,7 +258,7 @@ namespace nappe::internal
             t.failed = false;
             t.point  = measure(corrected, trial_gamma, report.iterations);
             share    = std::max(max_deflection_change(corrected, predicted) / (settings_.largest_deflection_change * h0),
-                             std::abs(t.point.conformed_fraction - predicted_fraction) /
+                             std::abs(fraction_of(corrected, trial_gamma) - predicted_fraction) /
                                settings_.largest_fraction_change);
             t.on_branch = share <= 1.0;
             t.crosses   = t.on_branch && (t.point.conformed_fraction >= target) != (lo.fraction >= target);

@@ -66,4 +66,13 @@ namespace nappe
   /// bins per histogram. Collective.
   ConformationMeasures measure_conformation(const SheetSystem &system, const Vector &state, const LoadLevel &level,
                                             unsigned int histogram_bins = 20);
+
+  /**
+   * The conformed fraction with a graded edge, which an adhesion path's branch test compares (our
+   * definition): a point counts 1 where g ≤ g_peak, falling linearly to 0 at g_peak + h₀. It changes
+   * continuously with the state (a change δw of the deflection changes it by at most δw/h₀ times the
+   * share of the area on the ramp), whereas the conformed fraction changes by a Gauss point's whole
+   * weight, on a grating cell by a whole column's, whenever a moving front passes one. Collective.
+   */
+  double graded_conformed_fraction(const SheetSystem &system, const Vector &state, const LoadLevel &level);
 } // namespace nappe

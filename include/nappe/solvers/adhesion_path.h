@@ -32,8 +32,9 @@ namespace nappe
     double relative_tolerance = 2e-3;
     double initial_step       = 0.05; ///< first step in ln Γ [-]
     double largest_step       = 0.5;  ///< largest step in ln Γ [-]
-    /// A step stays on the branch only if the conformed fraction differs from that of the predicted
-    /// state (bisection: of the previous state) by at most this [-] ...
+    /// A step stays on the branch only if its share of contact (PathMeasure::fraction) differs from
+    /// that of the predicted state (bisection: its conformed fraction from the previous state's) by at
+    /// most this [-] ...
     double largest_fraction_change = 0.02;
     /// ... and the deflection nowhere by more than this times the equilibrium gap h₀ of the law [-].
     double largest_deflection_change = 1.0;
@@ -60,7 +61,10 @@ namespace nappe
     std::vector<std::string> names; ///< the names of StateSummary::values, with their units
     std::function<StateSummary(const SheetSystem &system, const Vector &ghosted_state, const LoadLevel &level)>
       measure;
-    /// The conformed fraction alone (of a predicted state); if empty, measure() is used.
+    /// The share of contact the predictor–corrector's branch test compares (of predicted states,
+    /// corrector iterates and corrected states): it should change continuously with the state, so that
+    /// a front moving past a quadrature point is not taken for a jump. If empty, the conformed fraction
+    /// of measure() is compared.
     std::function<double(const SheetSystem &system, const Vector &ghosted_state, const LoadLevel &level)> fraction;
   };
 
@@ -114,7 +118,7 @@ namespace nappe
    * the predictor is U + ΔΓ·dU/dΓ (path_tangent(), one solve with the factorisation the corrector
    * already has) and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
    * branch if it is certified and differs from the prediction by at most largest_deflection_change·h₀
-   * in w and largest_fraction_change in conformed fraction. The first step on a branch is the one
+   * in w and largest_fraction_change in share of contact (PathMeasure::fraction). The first step on a branch is the one
    * over which the tangent predicts a change of w of a quarter of that limit; the next step is scaled
    * from the corrector's work (its iterations and its distance, which grows with the step squared).
    * Each accepted state's lowest curvature μ₁ (StabilityCertificate::lowest_eigenpair) and its rate
