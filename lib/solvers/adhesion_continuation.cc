@@ -228,7 +228,11 @@ namespace nappe::internal
         // A confirmation crosses the whole snap-through, which can take longer than the iteration
         // budget of a step: where the budget ran out, it goes on from where it stopped, up to three times.
         for (unsigned int more = 0; confirming && report.out_of_iterations && more < 3; ++more, ++path.solves)
-          report = minimizer_->minimize(corrected, level(trial_gamma), 0.0);
+          {
+            const unsigned int spent = report.iterations;
+            report                   = minimizer_->minimize(corrected, level(trial_gamma), 0.0);
+            report.iterations += spent;
+          }
         Trial t;
         t.gamma      = trial_gamma;
         t.from_gamma = lo.gamma;

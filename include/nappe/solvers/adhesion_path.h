@@ -118,9 +118,10 @@ namespace nappe
    * the predictor is U + ΔΓ·dU/dΓ (path_tangent(), one solve with the factorisation the corrector
    * already has) and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
    * branch if it is certified and differs from the prediction by at most largest_deflection_change·h₀
-   * in w and largest_fraction_change in share of contact (PathMeasure::fraction). The first step on a branch is the one
-   * over which the tangent predicts a change of w of a quarter of that limit; the next step is scaled
-   * from the corrector's work (its iterations and its distance, which grows with the step squared).
+   * in w and largest_fraction_change in share of contact (PathMeasure::fraction). The first step on a
+   * branch is the one over which the tangent predicts a change of w of a quarter of that limit; the next
+   * step is scaled from the corrector's work (its iterations and its distance, which grows with the step
+   * squared).
    * Each accepted state's lowest curvature μ₁ (StabilityCertificate::lowest_eigenpair) and its rate
    * 1/max|dw/d ln Γ| announce a fold: both vanish like the square root of the distance to a
    * saddle-node, so two states extrapolate the fold's position, and the steps are placed to bracket
