@@ -126,8 +126,42 @@ namespace nappe
         newton_length_    = scaled_norm(newton_step_);
         newton_decrement_ = -(gradient * newton_step_);
       }
+    else
+      lower_ = std::max(lower_, -curvature_along(eigenvector_));
     inertia_ = count;
     return count;
+  }
+
+  // zᵀHz/zᵀSz for the unshifted H: its negative bounds λ* from below, since λ* ≥ −μ₁ ≥ −zᵀHz/zᵀSz.
+  // Along a Newton path the last lowest eigenvector is a close guess of the new one, so the bound is
+  // nearly sharp for the price of one product with H.
+  double MoreSorensenSubproblem::curvature_along(const Vector &z) const
+  {
+    Vector Hz = z;
+    H_->vmult(Hz, z); // (H + shift·S) z
+    const double zSz = std::pow(scaled_norm(z), 2);
+    return zSz > 0.0 ? (z * Hz) / zSz - shift_ : 0.0;
+  }
+
+  // H + λS is indefinite: a direction of negative curvature z, zᵀ(H + λS)z < 0 with ‖z‖_S = 1, raises
+  // the lower bound to λ − zᵀ(H + λS)z (Moré & Sorensen 1983, §3, where z comes from the incomplete
+  // Cholesky factor; here from inverse iteration with the indefinite factorisation, which tends to the
+  // eigenvalue nearest zero, the negative one when λ is close to −μ₁). λ* usually lies just above that
+  // bound (near the hard case), so the next trial is 10 % above it (common practice, no source);
+  // without such a direction, the safeguarded guess between the bounds.
+  double MoreSorensenSubproblem::past_indefinite(double lambda, double &lower, double upper)
+  {
+    lower = lower_ = std::max(lower, lambda);
+    if (prepared_)
+      {
+        const LowestEigenpair z = lowest_shifted_eigenpair();
+        if (z.available && z.value < 0.0)
+          {
+            lower = lower_ = std::max(lower, lambda - z.value);
+            return std::min(1.1 * lower, 0.5 * (lower + upper));
+          }
+      }
+    return safeguarded(lower, upper);
   }
 
   // The boundary point p + τz, ‖p + τz‖_S = Δ, of the two that gives the lower model value
@@ -205,7 +239,14 @@ namespace nappe
     Vector best_p;
     double best_lambda = -1.0;
     if (!have_p)
-      lambda = std::min(std::max(last_multiplier_, lower), upper);
+      {
+        // The factorisation of the indefinite H itself may already show a direction of negative curvature.
+        if (inertia_ != 0 && prepared_ && shift_ == 0.0)
+          past_indefinite(0.0, lower, upper);
+        lambda = std::min(std::max(last_multiplier_, 1.1 * lower), upper);
+        if (lambda <= lower) // H + λS is not positive definite for any λ ≤ λ_L
+          lambda = safeguarded(lower, upper);
+      }
     while (factorizations_ - start < max_factorizations)
       {
         if (!have_p)
@@ -213,8 +254,7 @@ namespace nappe
             unsigned int count = 0;
             if (!factorize_at(lambda, count))
               {
-                lower = lower_ = std::max(lower, lambda);
-                lambda         = safeguarded(lower, upper);
+                lambda = past_indefinite(lambda, lower, upper);
                 continue;
               }
             solve_shifted(*gradient_, p);

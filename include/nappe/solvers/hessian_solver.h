@@ -79,7 +79,9 @@ namespace nappe
      * along a path of minima marks a fold; its vector is the direction in which the branch turns.
      * The result states an error bound: |μ − μ_j| ≤ ‖Hv − μSv‖_{S⁻¹} for some eigenvalue μ_j
      * (residual bound for symmetric pencils, B. N. Parlett, The Symmetric Eigenvalue Problem, SIAM
-     * 1998, Theorem 4.5.1 applied to S^{-1/2}HS^{-1/2}). Collective. A certificate that cannot
+     * 1998, Theorem 4.5.1 applied to S^{-1/2}HS^{-1/2}). For an indefinite H the pair is only an
+     * estimate (inverse iteration with an LDLᵀ factorisation tends to the eigenvalue nearest zero),
+     * but its Rayleigh quotient still bounds μ₁ from above. Collective. A certificate that cannot
      * offer it returns available = false (the default).
      */
     virtual LowestEigenpair lowest_eigenpair(const SparseMatrix &H, const Vector &weights, const Vector &start);

@@ -30,7 +30,9 @@ namespace nappe
    * and λ(Δ − ‖p‖_S) = 0. λ is found by Newton's method on the secular equation 1/‖p(λ)‖_S = 1/Δ
    * (their eq. 3.6: λ⁺ = λ + (‖p‖/‖q‖)²(‖p‖ − Δ)/Δ, with ‖q‖² = (Sp)ᵀ(H + λS)⁻¹(Sp)), safeguarded by
    * bounds λ_L ≤ λ* ≤ λ_U; every trial λ is one factorisation of H + λS, and the stability certificate
-   * (its inertia) tells whether H + λS is positive definite. In the hard case (g nearly orthogonal to
+   * (its inertia) tells whether H + λS is positive definite. Where it is not, a direction z of negative
+   * curvature raises λ_L to λ − zᵀ(H + λS)z/‖z‖²_S (their §3, with z from their Cholesky factor; here
+   * from inverse iteration with the indefinite factorisation, or at a new point the last eigenvector). In the hard case (g nearly orthogonal to
    * the lowest eigenvector, e.g. at a saddle where g = 0) a multiple of the lowest eigenvector z of
    * (H + λS, S) is added to reach the boundary; z comes from the certificate (inverse iteration with
    * the factorisation for LDLᵀ). A step is accepted when |‖p‖_S − Δ| ≤ σ₁Δ (σ₁ = 0.1, Moré & Sorensen's
@@ -87,6 +89,8 @@ namespace nappe
     double scaled_norm(const Vector &v) const;
     void   solve_shifted(const Vector &rhs, Vector &x) const;
     LowestEigenpair lowest_shifted_eigenpair();
+    double          curvature_along(const Vector &z) const;
+    double          past_indefinite(double lambda, double &lower, double upper);
     double model_decrease(const Vector &p) const;
     Vector to_boundary(const Vector &p, const LowestEigenpair &z, double radius) const;
     Vector dogleg(double radius) const;
