@@ -85,7 +85,9 @@ namespace nappe
    *    of negative curvature where H is indefinite (an adhesion front, a buckle, a saddle); the
    *    step is accepted if the energy falls by at least acceptance_ratio times the predicted
    *    decrease, and Δ is updated from that ratio ρ (ρ < ¼: Δ = ¼‖p‖; ρ > ¾ on the boundary: Δ = 2Δ;
-   *    Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, Algorithm 4.1). A state whose
+   *    Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, Algorithm 4.1); such a step, cut
+   *    short by the region, is then doubled along its direction while the energy falls, and Δ grows
+   *    with it (energy evaluations instead of a Newton iteration per doubling). A state whose
    *    residual is small but whose Hessian is indefinite is a saddle; the step there is the
    *    hard case of the subproblem, along the lowest eigenvector (counted as a saddle escape).
    *  - line search (default): shift H + μ·diag|H| until the certificate finds no negative
@@ -143,6 +145,7 @@ namespace nappe
                              const LoadLevel &level, double &step);
     bool         escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift);
     double       energy_at(const Vector &owned_state, const LoadLevel &level) const;
+    double       extend_step(Vector &state, const Vector &step, double energy, const LoadLevel &level) const;
     /// Σ|energy parts|: the scale of round-off in the total energy [J].
     static double energy_scale(const EnergyParts &e);
     double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
