@@ -71,7 +71,7 @@ namespace nappe
   {
     const unsigned int max_doublings = 10; // at most 2¹⁰ times the step (common practice, no source)
     Vector             increment = step, candidate = state;
-    double             growth    = 1.0;
+    double             growth    = 1.0; // the state is x + growth·step
     for (unsigned int k = 0; k < max_doublings; ++k)
       {
         candidate = state;
@@ -82,7 +82,7 @@ namespace nappe
           break;
         state  = candidate;
         energy = e;
-        growth += increment.l2_norm() / step.l2_norm();
+        growth *= 2.0;
         increment *= 2.0;
       }
     return growth;
