@@ -175,6 +175,15 @@ namespace nappe
     return e;
   }
 
+  MinimizerReport EnergyMinimizer::stopped_by_caller(MinimizerReport &report, unsigned int steps,
+                                                     unsigned int factorizations)
+  {
+    report.stopped        = true;
+    report.message        = "stopped by the caller after " + std::to_string(steps) + " iterations";
+    report.factorizations = factorizations;
+    return report;
+  }
+
   MinimizerReport EnergyMinimizer::minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale,
                                                          const IterateCheck &keep_going)
   {
@@ -240,6 +249,12 @@ namespace nappe
           }
         if (it == settings_.max_iterations)
           break;
+        // A step at an indefinite Hessian costs several factorisations: ask the caller first.
+        if (negative > 0 && keep_going && !keep_going(state, rec))
+          {
+            report.history.push_back(rec);
+            return stopped_by_caller(report, it, subproblem.factorizations());
+          }
         // The first radius: the Newton step where H is positive definite, else the scaled gradient
         // step (or, at a saddle where g = 0, a step whose energy norm is a thousandth of the energy).
         if (radius < 0.0)
@@ -289,12 +304,7 @@ namespace nappe
           << (negative ? ", negative pivots " + std::to_string(negative) : std::string()) << "\n";
         say(s.str());
         if (keep_going && !keep_going(state, rec))
-          {
-            report.stopped        = true;
-            report.message        = "stopped by the caller after " + std::to_string(it + 1) + " iterations";
-            report.factorizations = subproblem.factorizations();
-            return report;
-          }
+          return stopped_by_caller(report, it + 1, subproblem.factorizations());
       }
     report_out_of_iterations(report);
     report.factorizations = subproblem.factorizations();

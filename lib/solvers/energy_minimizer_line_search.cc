@@ -278,11 +278,7 @@ namespace nappe
           }
         minimum_shift = 0.0;
         if (keep_going && !keep_going(state, rec))
-          {
-            report.stopped = true;
-            report.message = "stopped by the caller after " + std::to_string(it + 1) + " iterations";
-            return report;
-          }
+          return stopped_by_caller(report, it + 1, report.factorizations);
       }
     report_out_of_iterations(report);
     return report;

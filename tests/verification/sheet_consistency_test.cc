@@ -8,6 +8,7 @@
 // whereas an inconsistent derivative leaves an O(ε) remainder. The observed order between
 // successive ε is checked to be ≈ 2.
 #include <deal.II/base/function.h>
+#include <deal.II/fe/mapping_cartesian.h>
 #include <deal.II/numerics/vector_tools.h>
 
 #include <nappe/physics/fvk_kinematics.h>
@@ -280,6 +281,18 @@ TEST(SheetConsistency, ResidualAndHessianAreDerivativesOnRhombicCell)
   model.loads.mean_strain[0][1] = 0.004;
   model.loads.eigenstrain[0][0] = 0.002;
   check_consistency(model, domain);
+}
+
+// Axis-parallel rectangular cells take the Cartesian mapping (the bilinear map is affine there), skewed
+// ones the bilinear mapping; the Taylor tests above check the derivatives with each.
+TEST(SheetConsistency, RectangularCellsUseTheCartesianMappingAndSkewedCellsTheBilinearOne)
+{
+  SheetModel model;
+  model.material = test_material();
+  const SheetSystem rectangular(model, rectangle(true), MPI_COMM_WORLD);
+  const SheetSystem skewed(model, rhombus(1), MPI_COMM_WORLD);
+  EXPECT_NE(dynamic_cast<const dealii::MappingCartesian<2> *>(&rectangular.mapping()), nullptr);
+  EXPECT_EQ(dynamic_cast<const dealii::MappingCartesian<2> *>(&skewed.mapping()), nullptr);
 }
 
 // The adhesion factor c of a LoadLevel scales the substrate potential and nothing else (sheet_model.h):

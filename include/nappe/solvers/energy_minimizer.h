@@ -111,7 +111,8 @@ namespace nappe
                     HessianSolvers solvers = {});
 
     /// Minimises from @p state (owned vector, satisfying the constraints) at the load level (λ, c).
-    /// @p force_scale sets the residual tolerance [N]; @p keep_going, if set, is asked after each step.
+    /// @p force_scale sets the residual tolerance [N]; @p keep_going, if set, is asked after each step (the
+    /// trust-region method asks before a step at an indefinite Hessian too, as that step costs several factorisations).
     MinimizerReport minimize(Vector &state, const LoadLevel &level, double force_scale,
                              const IterateCheck &keep_going = {});
 
@@ -151,6 +152,7 @@ namespace nappe
     double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
     std::string  stalled_message(double residual, double physical) const;
     void         report_out_of_iterations(MinimizerReport &report) const;
+    static MinimizerReport stopped_by_caller(MinimizerReport &report, unsigned int steps, unsigned int factorizations);
     /// The log line of a converged minimisation: energy, residual and the certificate's verdict.
     static std::string converged_line(const MinimizerReport &report);
 
