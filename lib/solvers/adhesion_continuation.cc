@@ -32,7 +32,6 @@ namespace nappe::internal
     struct Previous
     {
       double ln_gamma, curvature, rate;
-      Vector state; ///< owned; empty once the mesh changed
     };
 
     /// A trial beyond the anchor that did not continue the branch: it left it, crossed the target
@@ -119,8 +118,6 @@ namespace nappe::internal
       const Remeshing r = refine_and_resolve(path, u, lo.gamma, false);
       if (!r.changed || !r.stayed)
         return r.stayed;
-      if (before)
-        before->state = Vector(); // of the old mesh
       AdhesionPathPoint point = measure(u, lo.gamma, path.points.back().newton_iterations + r.newton_iterations);
       point.after_jump        = path.points.back().after_jump;
       path.points.back()      = point;
@@ -161,7 +158,7 @@ namespace nappe::internal
                 hi->point.after_jump = !hi->on_branch;
                 const bool crossing = hi->on_branch;
                 if (crossing)
-                  before = Previous{std::log(lo.gamma), lo.curvature, lo.rate, lo.state};
+                  before = Previous{std::log(lo.gamma), lo.curvature, lo.rate};
                 else
                   before.reset(); // a new branch
                 path.points.push_back(hi->point);
@@ -209,16 +206,6 @@ namespace nappe::internal
         // Predictor and corrector.
         predicted = lo.state;
         predicted.add(trial_gamma - lo.gamma, lo.tangent);
-        if (before && before->state.size() > 0)
-          {
-            // The quadratic in Γ with lo's state and slope through the previous state on the branch:
-            // its error is third order in the step, the tangent's second order.
-            const double to_before = std::exp(before->ln_gamma) - lo.gamma, ahead = trial_gamma - lo.gamma;
-            Vector       curvature = before->state;
-            curvature -= lo.state;
-            curvature.add(-to_before, lo.tangent);
-            predicted.add(ahead * ahead / (to_before * to_before), curvature);
-          }
         system_.constraints().distribute(predicted);
         corrected = predicted;
         // A trial that is not the confirmation of a jump only has to tell whether it stays on the
@@ -296,7 +283,7 @@ namespace nappe::internal
         if (t.on_branch && !t.crosses)
           {
             path.points.push_back(t.point);
-            before = Previous{std::log(lo.gamma), lo.curvature, lo.rate, lo.state};
+            before = Previous{std::log(lo.gamma), lo.curvature, lo.rate};
             lo     = anchor_at(corrected, trial_gamma, path.points.back());
             if (hi && ln_distance(lo.gamma, hi->gamma) < 1e-12 * tolerance)
               hi = next_beyond(); // the confirmation found the branch continuing

@@ -124,3 +124,38 @@ TEST(CompressedPeriodicStrip, TrustRegionLeavesTheFlatStartForTheExactBuckle)
 {
   expect_exact_buckle(buckle(MinimizerMethod::trust_region));
 }
+
+// The flat start is a saddle (negative pivots): a caller that only wants stable iterates is asked
+// before the trust-region step there, whose multiplier search costs further factorisations; stopping
+// leaves the state untouched and costs fewer factorisations than letting one step be taken.
+TEST(CompressedPeriodicStrip, TrustRegionAsksTheCallerBeforeAStepAtTheIndefiniteFlatStart)
+{
+  SheetSystem       system(compressed_strip(), periodic_strip(), MPI_COMM_WORLD);
+  MinimizerSettings settings;
+  settings.method = MinimizerMethod::trust_region;
+  // Stops at the given call of the check and counts the calls and the negative pivots seen.
+  const auto run = [&](unsigned int stop_at, unsigned int &asked, unsigned int &negative_seen, Vector &owned) {
+    EnergyMinimizer minimizer(system, settings, nullptr, test_support::test_solvers(system));
+    owned = system.make_owned_vector();
+    asked = negative_seen = 0;
+    return minimizer.minimize(owned, 1.0, 0.0, [&](const Vector &, const IterationRecord &record) {
+      negative_seen = std::max(negative_seen, record.negative_pivots);
+      return ++asked < stop_at;
+    });
+  };
+  unsigned int          asked = 0, negative_seen = 0;
+  Vector                before_step, after_step;
+  const MinimizerReport stopped_before = run(1, asked, negative_seen, before_step);
+  EXPECT_TRUE(stopped_before.stopped);
+  EXPECT_FALSE(stopped_before.converged);
+  EXPECT_EQ(asked, 1u);
+  EXPECT_GE(negative_seen, 1u); // ε = 2e-3 lies above several modes' buckling strains
+  EXPECT_EQ(stopped_before.iterations, 0u);
+  EXPECT_EQ(before_step.linfty_norm(), 0.0);
+
+  const MinimizerReport stopped_after = run(2, asked, negative_seen, after_step);
+  EXPECT_TRUE(stopped_after.stopped);
+  EXPECT_EQ(asked, 2u); // before the step and after it
+  EXPECT_GT(after_step.linfty_norm(), 0.0);
+  EXPECT_LT(stopped_before.factorizations, stopped_after.factorizations);
+}

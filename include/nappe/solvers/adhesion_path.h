@@ -116,8 +116,7 @@ namespace nappe
    *
    * Predictor–corrector (default; docs/theory.md, "Adhesion limits"): from a certified state U at Γ,
    * the predictor is U + ΔΓ·dU/dΓ (path_tangent(), one solve with the factorisation the corrector
-   * already has), plus, where the branch has a previous state, the quadratic term that passes through
-   * it, and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
+   * already has) and the corrector is the trust-region minimiser at Γ + ΔΓ. The trial stays on the
    * branch if it is certified and differs from the prediction by at most largest_deflection_change·h₀
    * in w and largest_fraction_change in share of contact (PathMeasure::fraction). The first step on a
    * branch is the one over which the tangent predicts a change of w of a quarter of that limit; the next
