@@ -217,7 +217,8 @@ namespace nappe::internal
         const double predicted_fraction = fraction_of(predicted, trial_gamma);
         unsigned int corrector_steps    = 0;
         const EnergyMinimizer::IterateCheck near_branch = [&](const Vector &u, const IterationRecord &iteration) {
-          return ++corrector_steps <= 2 * continuation::target_iterations && iteration.negative_pivots == 0 &&
+          corrector_steps += iteration.chord ? 0 : 1; // chord steps are bounded by the minimiser
+          return corrector_steps <= 2 * continuation::target_iterations && iteration.negative_pivots == 0 &&
                  max_deflection_change(u, predicted) <= 4.0 * settings_.largest_deflection_change * h0 &&
                  std::abs(fraction_of(u, trial_gamma) - predicted_fraction) <=
                    4.0 * settings_.largest_fraction_change;

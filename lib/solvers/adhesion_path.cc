@@ -24,7 +24,10 @@ namespace nappe
       {
         MinimizerSettings m = p.newton;
         if (s.method == ContinuationMethod::predictor_corrector)
-          m.method = MinimizerMethod::trust_region;
+          {
+            m.method          = MinimizerMethod::trust_region;
+            m.max_chord_steps = 8;
+          }
         return m;
       }
 

@@ -152,9 +152,10 @@ namespace nappe
   MinimizerReport EnergyMinimizer::minimize(Vector &state, const LoadLevel &level, double force_scale,
                                             const IterateCheck &keep_going)
   {
-    hessian_current_ = false;
+    const bool reusable = hessian_current_ && regular_minimum_;
+    hessian_current_    = false;
     return settings_.method == MinimizerMethod::trust_region ?
-             minimize_trust_region(state, level, force_scale, keep_going) :
+             minimize_trust_region(state, level, force_scale, keep_going, reusable) :
              minimize_line_search(state, level, force_scale, keep_going);
   }
 
@@ -184,8 +185,65 @@ namespace nappe
     return report;
   }
 
+  double EnergyMinimizer::scaled_norm(const Vector &v) const
+  {
+    Vector weighted = v;
+    weighted.scale(diagonal_);
+    return std::sqrt(std::max(0.0, weighted * v));
+  }
+
+  bool EnergyMinimizer::chord_steps(Vector &state, const LoadLevel &level, double force_scale,
+                                    const IterateCheck &keep_going, MinimizerReport &report, double &tolerance)
+  {
+    Vector     ghosted = system_.make_ghosted_vector();
+    Vector     trial = system_.make_owned_vector(), correction = system_.make_owned_vector();
+    const auto correction_at = [&](Vector &c) { // c = −H₀⁻¹R, with the factorisation of H₀
+      solvers_.solver->solve(residual_, c);
+      c *= -1.0;
+      system_.constraints().set_zero(c);
+      return scaled_norm(c);
+    };
+    ghosted       = state;
+    EnergyParts e = system_.assemble(ghosted, level, residual_, nullptr, tolerance < 0.0 ? &magnitude_ : nullptr);
+    double      r = residual_.l2_norm();
+    if (tolerance < 0.0)
+      tolerance = residual_tolerance(level, force_scale, r);
+    double length = r <= tolerance ? 0.0 : correction_at(correction);
+    for (unsigned int k = 0; k < settings_.max_chord_steps && r > tolerance; ++k)
+      {
+        trial = state;
+        trial += correction;
+        system_.constraints().distribute(trial);
+        ghosted                 = trial;
+        const EnergyParts after = system_.assemble(ghosted, level, residual_, nullptr, nullptr);
+        // A minimiser, not a root finder: the energy must not rise beyond round-off (as for trust-region steps).
+        if (!(after.total() <= e.total() + 1e-12 * energy_scale(e)))
+          break;
+        state = trial;
+        e     = after;
+        r     = residual_.l2_norm();
+        ++report.chord_steps;
+        IterationRecord rec{k, e.total(), r, length, 0.0, 0, 0.0, 0};
+        rec.chord = true;
+        report.history.push_back(rec);
+        if (keep_going && !keep_going(state, rec))
+          return false;
+        if (log_)
+          *log_ << "    chord " << std::setw(2) << k << ": E = " << std::scientific << std::setprecision(6) << e.total()
+                << " J, |R| = " << std::setprecision(2) << r << " N\n"
+                << std::flush;
+        if (r <= tolerance)
+          break;
+        const double previous = length;
+        length                = correction_at(correction);
+        if (!(length < 0.5 * previous)) // the contraction θ ≥ ½: that Hessian no longer serves
+          break;
+      }
+    return true;
+  }
+
   MinimizerReport EnergyMinimizer::minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale,
-                                                         const IterateCheck &keep_going)
+                                                         const IterateCheck &keep_going, bool reuse_factorization)
   {
     MinimizerReport        report;
     Vector                 ghosted = system_.make_ghosted_vector();
@@ -198,6 +256,9 @@ namespace nappe
       if (log_)
         *log_ << s << std::flush;
     };
+    if (reuse_factorization && settings_.max_chord_steps > 0 &&
+        !chord_steps(state, level, force_scale, keep_going, report, tolerance))
+      return stopped_by_caller(report, report.chord_steps, 0);
     for (unsigned int it = 0; it <= settings_.max_iterations; ++it)
       {
         ghosted             = state;
@@ -234,6 +295,7 @@ namespace nappe
                 report.history.push_back(rec);
                 report.converged = true;
                 hessian_current_ = true;
+                regular_minimum_ = report.zero_pivots == 0;
                 say(converged_line(report));
                 return report;
               }
@@ -261,6 +323,7 @@ namespace nappe
           radius = negative == 0 ? subproblem.newton_length() :
                                    std::max(subproblem.gradient_length(), 1e-3 * std::sqrt(energy_scale(e)));
         const double round_off = 1e-13 * energy_scale(e);
+        bool         chord_ready = false; // the factorisation is of H, and the model predicted the accepted step well
         while (true)
           {
             const TrustRegionStep step = subproblem.solve(radius);
@@ -281,6 +344,8 @@ namespace nappe
                 state = trial;
                 if (ratio > 0.75 && step.length >= 0.9 * rec.radius)
                   radius *= extend_step(state, step.step, e.total() - actual, level);
+                // |ρ − 1| ≤ 0.1: H hardly changed along the step (common practice, no source).
+                chord_ready = negative == 0 && subproblem.zero_eigenvalues() == 0 && std::abs(ratio - 1.0) <= 0.1;
                 break;
               }
             if (++rec.rejected_steps > 60 || !(radius > 0.0))
@@ -304,6 +369,9 @@ namespace nappe
           << (negative ? ", negative pivots " + std::to_string(negative) : std::string()) << "\n";
         say(s.str());
         if (keep_going && !keep_going(state, rec))
+          return stopped_by_caller(report, it + 1, subproblem.factorizations());
+        if (chord_ready && settings_.max_chord_steps > 0 &&
+            !chord_steps(state, level, force_scale, keep_going, report, tolerance))
           return stopped_by_caller(report, it + 1, subproblem.factorizations());
       }
     report_out_of_iterations(report);

@@ -234,6 +234,7 @@ namespace nappe
               {
                 report.converged = true;
                 hessian_current_ = true;
+                regular_minimum_ = report.zero_pivots == 0;
                 say(converged_line(report));
                 return report;
               }

@@ -321,6 +321,9 @@ namespace nappe
           }
     SparsityTools::distribute_sparsity_pattern(dsp, owned_dofs_, comm_, relevant_dofs_);
     hessian_.reinit(owned_dofs_, owned_dofs_, dsp, comm_);
+    edge_terms_.clear();
+    edge_terms_ready_ = false;
+    edge_operator_.reset();
   }
 
   void SheetSystem::adapt(Vector &state)

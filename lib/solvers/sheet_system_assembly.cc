@@ -2,7 +2,9 @@
 #include <deal.II/base/quadrature_lib.h>
 #include <deal.II/fe/fe_interface_values.h>
 #include <deal.II/fe/fe_values.h>
+#include <deal.II/lac/dynamic_sparsity_pattern.h>
 #include <deal.II/lac/full_matrix.h>
+#include <deal.II/lac/sparsity_tools.h>
 #include <deal.II/lac/vector.h>
 
 #include <nappe/physics/fvk_kinematics.h>
@@ -47,12 +49,15 @@ namespace nappe
       *hessian = 0.0;
     EnergyParts parts;
     assemble_cells(state, level, residual, hessian, magnitude, parts);
-    assemble_edges(state, residual, hessian, magnitude, parts);
+    assemble_edges(state, residual, nullptr, magnitude, parts); // their Hessian is edge_operator()
     assemble_point_loads(state, level.load, residual, parts);
     if (residual)
       residual->compress(VectorOperation::add);
     if (hessian)
-      hessian->compress(VectorOperation::add);
+      {
+        hessian->compress(VectorOperation::add);
+        hessian->add(1.0, edge_operator());
+      }
     if (magnitude)
       magnitude->compress(VectorOperation::add);
     parts.stretching    = Utilities::MPI::sum(parts.stretching, comm_);
@@ -164,8 +169,7 @@ namespace nappe
   // The C0 interior penalty terms: each interior or periodic edge once (by the cell with the smaller
   // id, or the smaller subdomain across ranks; between cells of different levels by the finer one,
   // sub-edge by sub-edge), and the clamped boundary edges.
-  void SheetSystem::assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian,
-                                   Vector *magnitude, EnergyParts &parts) const
+  std::vector<SheetSystem::EdgeTerms> SheetSystem::evaluate_edge_terms() const
   {
     const unsigned int p = model_.discretization.degree;
     const QGauss<1>    quadrature(p + 1);
@@ -175,17 +179,12 @@ namespace nappe
     const SheetMaterial &mat     = model_.material;
     const double         penalty = model_.discretization.penalty_factor * p * (p + 1) * mat.bending_rigidity;
 
-    std::vector<unsigned int>            w_dofs;
-    std::vector<types::global_dof_index> w_global;
-    std::vector<double>                  jump_n, moment_nn;
-    FullMatrix<double>                   edge_matrix;
-    dealii::Vector<double>               edge_rhs;
-
     auto clamped = [&](types::boundary_id id) {
       const auto it = model_.edges.find(id);
       return it != model_.edges.end() && it->second.deflection == DeflectionCondition::clamped;
     };
 
+    std::vector<EdgeTerms> edges;
     for (const auto &cell : dof_handler_.active_cell_iterators())
       {
         if (!cell->is_locally_owned())
@@ -221,62 +220,115 @@ namespace nappe
               }
 
             // Only the w interface dofs enter the edge terms.
-            w_dofs.clear();
-            w_global.clear();
-            const auto &interface_dofs = fiv.get_interface_dof_indices();
+            EdgeTerms                edge;
+            std::vector<unsigned int> w_dofs;
+            const auto              &interface_dofs = fiv.get_interface_dof_indices();
             for (unsigned int k = 0; k < fiv.n_current_interface_dofs(); ++k)
               {
-                const auto   local = fiv.interface_dof_to_dof_indices(k);
-                const auto   side  = local[0] != numbers::invalid_unsigned_int ? 0 : 1;
+                const auto local = fiv.interface_dof_to_dof_indices(k);
+                const auto side  = local[0] != numbers::invalid_unsigned_int ? 0 : 1;
                 if (fe_.system_to_component_index(local[side]).first == w_component)
                   {
                     w_dofs.push_back(k);
-                    w_global.push_back(interface_dofs[k]);
+                    edge.dofs.push_back(interface_dofs[k]);
                   }
               }
-            const unsigned int n = w_dofs.size();
-            jump_n.resize(n);
-            moment_nn.resize(n);
-            edge_matrix.reinit(n, n);
-            edge_rhs.reinit(n);
-
+            edge.penalty_over_h = penalty / h;
             for (const unsigned int q : fiv.quadrature_point_indices())
               {
                 const Tensor<1, 2> &normal = fiv.normal(q);
-                double              w_jump = 0.0, w_moment = 0.0;
-                for (unsigned int a = 0; a < n; ++a)
+                for (const unsigned int k : w_dofs)
                   {
-                    const unsigned int k = w_dofs[a];
-                    jump_n[a]            = fiv[deflection].jump_in_gradients(k, q) * normal;
-                    moment_nn[a] =
+                    edge.slope_jump.push_back(fiv[deflection].jump_in_gradients(k, q) * normal);
+                    edge.normal_moment.push_back(
                       normal * (bending_moment(dealii::symmetrize(fiv[deflection].average_of_hessians(k, q)), mat) *
-                                normal);
-                    const double U = state(w_global[a]);
-                    w_jump += U * jump_n[a];
-                    w_moment += U * moment_nn[a];
+                                normal));
                   }
-                const double dL = fiv.JxW(q);
-                parts.bending += (-w_moment * w_jump + 0.5 * penalty / h * w_jump * w_jump) * dL;
-                if (!residual)
-                  continue;
-                for (unsigned int a = 0; a < n; ++a)
-                  {
-                    edge_rhs(a) += (-moment_nn[a] * w_jump - w_moment * jump_n[a] + penalty / h * w_jump * jump_n[a]) * dL;
-                    if (hessian)
-                      for (unsigned int b = 0; b < n; ++b)
-                        edge_matrix(a, b) += (-moment_nn[a] * jump_n[b] - moment_nn[b] * jump_n[a] +
-                                              penalty / h * jump_n[a] * jump_n[b]) *
-                                             dL;
-                  }
+                edge.weights.push_back(fiv.JxW(q));
               }
+            edges.push_back(std::move(edge));
+          }
+      }
+    return edges;
+  }
+
+  const std::vector<SheetSystem::EdgeTerms> &SheetSystem::edge_terms() const
+  {
+    if (!edge_terms_ready_)
+      {
+        edge_terms_       = evaluate_edge_terms();
+        edge_terms_ready_ = true;
+      }
+    return edge_terms_;
+  }
+
+  const SparseMatrix &SheetSystem::edge_operator() const
+  {
+    if (!edge_operator_)
+      {
+        // Its own pattern, the w–w couplings of the edges (a part of the Hessian's, far smaller than it).
+        DynamicSparsityPattern dsp(relevant_dofs_);
+        for (const EdgeTerms &edge : edge_terms())
+          {
+            constraints_.add_entries_local_to_global(edge.dofs, dsp, false);
+            for (const auto i : edge.dofs)
+              dsp.add(i, i); // the diagonal placeholders of constrained rows
+          }
+        SparsityTools::distribute_sparsity_pattern(dsp, owned_dofs_, comm_, relevant_dofs_);
+        auto K = std::make_unique<SparseMatrix>();
+        K->reinit(owned_dofs_, owned_dofs_, dsp, comm_);
+        Vector scratch = make_owned_vector();
+        EnergyParts unused;
+        assemble_edges(make_ghosted_vector(), &scratch, K.get(), nullptr, unused);
+        K->compress(VectorOperation::add);
+        edge_operator_ = std::move(K);
+      }
+    return *edge_operator_;
+  }
+
+  void SheetSystem::assemble_edges(const Vector &state, Vector *residual, SparseMatrix *hessian,
+                                   Vector *magnitude, EnergyParts &parts) const
+  {
+    std::vector<double>    U;
+    FullMatrix<double>     edge_matrix;
+    dealii::Vector<double> edge_rhs;
+    for (const EdgeTerms &edge : edge_terms())
+      {
+        const unsigned int n = edge.dofs.size();
+        U.resize(n);
+        for (unsigned int a = 0; a < n; ++a)
+          U[a] = state(edge.dofs[a]);
+        edge_matrix.reinit(hessian ? n : 0, hessian ? n : 0);
+        edge_rhs.reinit(n);
+        for (unsigned int q = 0; q < edge.weights.size(); ++q)
+          {
+            const double *jump_n = &edge.slope_jump[q * n], *moment_nn = &edge.normal_moment[q * n];
+            double        w_jump = 0.0, w_moment = 0.0;
+            for (unsigned int a = 0; a < n; ++a)
+              {
+                w_jump += U[a] * jump_n[a];
+                w_moment += U[a] * moment_nn[a];
+              }
+            const double dL = edge.weights[q], penalty_h = edge.penalty_over_h;
+            parts.bending += (-w_moment * w_jump + 0.5 * penalty_h * w_jump * w_jump) * dL;
             if (!residual)
               continue;
-            if (hessian)
-              constraints_.distribute_local_to_global(edge_matrix, edge_rhs, w_global, *hessian, *residual);
-            else
-              constraints_.distribute_local_to_global(edge_rhs, w_global, *residual);
-            add_magnitude(constraints_, edge_rhs, w_global, magnitude);
+            for (unsigned int a = 0; a < n; ++a)
+              {
+                edge_rhs(a) += (-moment_nn[a] * w_jump - w_moment * jump_n[a] + penalty_h * w_jump * jump_n[a]) * dL;
+                if (hessian)
+                  for (unsigned int b = 0; b < n; ++b)
+                    edge_matrix(a, b) +=
+                      (-moment_nn[a] * jump_n[b] - moment_nn[b] * jump_n[a] + penalty_h * jump_n[a] * jump_n[b]) * dL;
+              }
           }
+        if (!residual)
+          continue;
+        if (hessian)
+          constraints_.distribute_local_to_global(edge_matrix, edge_rhs, edge.dofs, *hessian, *residual);
+        else
+          constraints_.distribute_local_to_global(edge_rhs, edge.dofs, *residual);
+        add_magnitude(constraints_, edge_rhs, edge.dofs, magnitude);
       }
   }
 

@@ -36,6 +36,9 @@ namespace nappe
     /// Trust region: a step is accepted when the energy decrease is at least this share of the
     /// decrease the quadratic model predicts (η of Nocedal & Wright 2006, Algorithm 4.1) [-].
     double acceptance_ratio = 1e-4;
+    /// Trust region: at most this many chord steps in a row, with a factorisation already made (the class
+    /// comment of EnergyMinimizer says when); 0: none [-].
+    unsigned int max_chord_steps = 0;
   };
 
   /// One Newton iteration as printed in the convergence history.
@@ -49,13 +52,15 @@ namespace nappe
     unsigned int negative_pivots = 0;   ///< negative eigenvalues of the unshifted Hessian
     double       radius          = 0.0; ///< trust radius Δ the step was taken with [√J]
     unsigned int rejected_steps  = 0;   ///< trust-region steps tried and rejected before the accepted one
+    bool         chord           = false; ///< a chord step: the factorisation of an earlier Hessian, no new one
   };
 
   struct MinimizerReport
   {
     bool         converged       = false;
     std::string  message;
-    unsigned int iterations      = 0;
+    unsigned int iterations      = 0;   ///< Newton iterations (each with a factorisation)
+    unsigned int chord_steps     = 0;   ///< chord steps between them (MinimizerSettings::max_chord_steps)
     double       residual        = 0.0; ///< final ‖R‖ [N]
     double       tolerance       = 0.0; ///< the residual the solve had to reach [N]
     double       energy          = 0.0; ///< [J]
@@ -90,6 +95,17 @@ namespace nappe
    *    with it (energy evaluations instead of a Newton iteration per doubling). A state whose
    *    residual is small but whose Hessian is indefinite is a saddle; the step there is the
    *    hard case of the subproblem, along the lowest eigenvector (counted as a saddle escape).
+   *    With MinimizerSettings::max_chord_steps > 0 (the corrector of a path), a factorisation is
+   *    reused by chord steps x ← x − H₀⁻¹R(x), each costing a residual assembly and a back
+   *    substitution instead of an assembly of H and a factorisation (the chord and Shamanskii methods:
+   *    C. T. Kelley, Iterative Methods for Linear and Nonlinear Equations, SIAM 1995, §5.4; P.
+   *    Deuflhard, Newton Methods for Nonlinear Problems, Springer 2004, §2.1; section numbers from
+   *    memory): H₀ is the Hessian of the previous minimisation's result, if that was a regular minimum,
+   *    before the first Newton iteration, and the positive definite Hessian of an iteration whose
+   *    step the quadratic model predicted well (|ρ − 1| ≤ 0.1) after it. They go on while the energy
+   *    does not rise and the corrections contract by at least half (Deuflhard's monitor
+   *    θ = ‖Δx_{k+1}‖_S/‖Δx_k‖_S < ½); the next Newton iteration then takes over, and certifies the
+   *    result at once if the chord steps reached the tolerance.
    *  - line search (default): shift H + μ·diag|H| until the certificate finds no negative
    *    eigenvalue (N&W §3.4), backtrack on the energy (Armijo), escape saddles along the eigenvector
    *    of most negative curvature.
@@ -135,7 +151,7 @@ namespace nappe
 
   private:
     MinimizerReport minimize_trust_region(Vector &state, const LoadLevel &level, double force_scale,
-                                          const IterateCheck &keep_going);
+                                          const IterateCheck &keep_going, bool reuse_factorization);
     MinimizerReport minimize_line_search(Vector &state, const LoadLevel &level, double force_scale,
                                          const IterateCheck &keep_going);
     void         set_scaling(const SparseMatrix &H);
@@ -147,6 +163,11 @@ namespace nappe
     bool         escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift);
     double       energy_at(const Vector &owned_state, const LoadLevel &level) const;
     double       extend_step(Vector &state, const Vector &step, double energy, const LoadLevel &level) const;
+    /// Chord steps from @p state with the prepared factorisation (see the class comment); a negative
+    /// @p tolerance is set from the first residual and magnitude_. False if @p keep_going stopped it.
+    bool         chord_steps(Vector &state, const LoadLevel &level, double force_scale, const IterateCheck &keep_going,
+                             MinimizerReport &report, double &tolerance);
+    double       scaled_norm(const Vector &v) const; ///< ‖v‖_S with S = diagonal_ [√J]
     /// Σ|energy parts|: the scale of round-off in the total energy [J].
     static double energy_scale(const EnergyParts &e);
     double       residual_tolerance(const LoadLevel &level, double force_scale, double first_residual) const;
@@ -167,5 +188,6 @@ namespace nappe
     Vector                eigenvector_; ///< the last lowest eigenvector (warm start)
     double                last_shift_ = 1e-4; ///< the last shift that made the Hessian positive definite
     bool                  hessian_current_ = false; ///< the prepared factorisation is H at the last result
+    bool                  regular_minimum_ = false; ///< ... and that result had no zero pivot
   };
 } // namespace nappe

@@ -134,6 +134,22 @@ namespace nappe
                         EnergyParts &parts) const;
     void assemble_point_loads(const Vector &state, double load_factor, Vector *residual,
                               EnergyParts &parts) const;
+    /// What the C0IP terms of one edge need, which depends on the mesh only: its w dofs and, at each
+    /// quadrature point, each dof's jump of the normal slope [1/m] and normal moment [N], and the weight [m].
+    struct EdgeTerms
+    {
+      std::vector<dealii::types::global_dof_index> dofs;
+      std::vector<double> slope_jump, normal_moment; ///< [q · dofs.size() + a]
+      std::vector<double> weights;
+      double              penalty_over_h = 0.0; ///< [N]
+    };
+    /// The edges' terms, evaluated once per mesh (the interface values of every edge at every assembly
+    /// cost more than the rest of an assembly).
+    const std::vector<EdgeTerms> &edge_terms() const;
+    std::vector<EdgeTerms>        evaluate_edge_terms() const;
+    /// The edge terms are quadratic in w: their Hessian K (constraints condensed, as assembled into the
+    /// Hessian) depends on the mesh only, and is assembled once per mesh and added to each Hessian.
+    const SparseMatrix &edge_operator() const;
 
     SheetModel  model_;
     SheetDomain domain_;
@@ -146,6 +162,9 @@ namespace nappe
     dealii::IndexSet                               relevant_dofs_;
     dealii::AffineConstraints<double>              constraints_;
     mutable SparseMatrix                           hessian_;
+    mutable std::vector<EdgeTerms>                 edge_terms_;     ///< built on first use; empty: not yet
+    mutable bool                                   edge_terms_ready_ = false;
+    mutable std::unique_ptr<SparseMatrix>          edge_operator_;  ///< K of edge_operator(), built on first use
     std::vector<std::unique_ptr<PointEvaluation>>  point_loads_;
   };
 } // namespace nappe
