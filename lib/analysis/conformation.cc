@@ -1,4 +1,6 @@
 #include <deal.II/base/mpi.h>
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/fe/fe_values.h>
 
 #include <nappe/analysis/conformation.h>
 #include <nappe/analysis/sheet_quantities.h>
@@ -199,20 +201,32 @@ namespace nappe
     return m;
   }
 
-  double graded_conformed_fraction(const SheetSystem &system, const Vector &state, const LoadLevel &level)
+  double graded_conformed_fraction(const SheetSystem &system, const Vector &state)
   {
     const AdhesionPotential *adhesion = system.model().adhesion();
     AssertThrow(adhesion, ExcMessage("Conformation measures need an adhesion substrate."));
     const double peak = adhesion->law().peak_traction_gap(), ramp = adhesion->law().equilibrium_gap();
-    double       graded = 0.0, area = 0.0;
-    for_each_cell(system, state, level, [&](const CellPoints &cp) {
-      for (std::size_t q = 0; q < cp.points.size(); ++q)
-        {
-          const double g = adhesion->gap(cp.points[q].x, cp.points[q].w);
-          graded += cp.weights[q] * std::clamp((peak + ramp - g) / ramp, 0.0, 1.0);
-          area += cp.weights[q];
-        }
-    });
+    // Only the deflection enters: values alone, not the full point states of for_each_cell (this
+    // measure is taken at every corrector step of an adhesion path).
+    const QGauss<2>    quadrature(system.model().discretization.degree + 1);
+    FEValues<2>        fv(system.mapping(), system.finite_element(), quadrature,
+                   update_values | update_quadrature_points | update_JxW_values);
+    const FEValuesExtractors::Scalar deflection(2);
+    std::vector<double>              w(quadrature.size());
+    double                           graded = 0.0, area = 0.0;
+    for (const auto &cell : system.dof_handler().active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        fv.reinit(cell);
+        fv[deflection].get_function_values(state, w);
+        for (unsigned int q = 0; q < w.size(); ++q)
+          {
+            const double g = adhesion->gap(fv.quadrature_point(q), w[q]);
+            graded += fv.JxW(q) * std::clamp((peak + ramp - g) / ramp, 0.0, 1.0);
+            area += fv.JxW(q);
+          }
+      }
     const MPI_Comm comm = system.communicator();
     return Utilities::MPI::sum(graded, comm) / Utilities::MPI::sum(area, comm);
   }

@@ -41,7 +41,9 @@ namespace nappe
       const ConformationMeasures c = measure_conformation(system, state, level, 1);
       return StateSummary{c.conformed_fraction, summary_values(measure_sheet(system, state, level), &c)};
     };
-    m.fraction = graded_conformed_fraction;
+    m.fraction = [](const SheetSystem &system, const Vector &state, const LoadLevel &) {
+      return graded_conformed_fraction(system, state);
+    };
     return m;
   }
 

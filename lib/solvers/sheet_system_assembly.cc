@@ -91,16 +91,26 @@ namespace nappe
     FullMatrix<double>        cell_matrix(n_dofs, n_dofs);
     dealii::Vector<double>    cell_rhs(n_dofs);
     std::vector<types::global_dof_index> dofs(n_dofs);
+    std::vector<double>       cell_state(n_dofs); // read from the distributed vector once per cell
+
+    // An in-plane dof varies only the strain; a w dof varies strain, slope, curvature and gap. The
+    // loops skip the products that vanish identically, so the sums are the full ones to the last bit.
+    std::vector<unsigned int> u_dofs, w_dofs;
+    for (unsigned int i = 0; i < n_dofs; ++i)
+      (fe_.system_to_component_index(i).first == w_component ? w_dofs : u_dofs).push_back(i);
+    const auto &u_view = fv[in_plane];
+    const auto &w_view = fv[deflection];
 
     for (const auto &cell : dof_handler_.active_cell_iterators())
       {
         if (!cell->is_locally_owned())
           continue;
         fv.reinit(cell);
-        fv[in_plane].get_function_gradients(state, grad_u);
-        fv[deflection].get_function_gradients(state, grad_w);
-        fv[deflection].get_function_hessians(state, hess_w);
-        fv[deflection].get_function_values(state, w);
+        cell->get_dof_values(state, cell_state.begin(), cell_state.end());
+        u_view.get_function_gradients_from_local_dof_values(cell_state, grad_u);
+        w_view.get_function_gradients_from_local_dof_values(cell_state, grad_w);
+        w_view.get_function_hessians_from_local_dof_values(cell_state, hess_w);
+        w_view.get_function_values_from_local_dof_values(cell_state, w);
         cell_matrix = 0;
         cell_rhs    = 0;
         for (unsigned int q = 0; q < n_q; ++q)
@@ -126,27 +136,34 @@ namespace nappe
             if (!residual)
               continue;
 
-            for (unsigned int i = 0; i < n_dofs; ++i)
+            for (const unsigned int i : u_dofs)
               {
-                d_grad_w[i] = fv[deflection].gradient(i, q);
-                d_w[i]      = fv[deflection].value(i, q);
-                d_strain[i] = fv[in_plane].symmetric_gradient(i, q);
-                if (nonlinear)
-                  d_strain[i] += symmetric_outer(grad_w[q], d_grad_w[i]);
-                d_curv[i] = symmetrize(fv[deflection].hessian(i, q));
+                d_strain[i] = u_view.symmetric_gradient(i, q);
+                cell_rhs(i) += (stress * d_strain[i]) * dA;
+              }
+            for (const unsigned int i : w_dofs)
+              {
+                d_grad_w[i] = w_view.gradient(i, q);
+                d_w[i]      = w_view.value(i, q);
+                d_strain[i] = nonlinear ? symmetric_outer(grad_w[q], d_grad_w[i]) : SymTensor();
+                d_curv[i]   = symmetrize(w_view.hessian(i, q));
                 cell_rhs(i) += (stress * d_strain[i] + moment * d_curv[i] + (dpsi - pressure) * d_w[i]) * dA;
               }
             if (!hessian)
               continue;
             for (unsigned int j = 0; j < n_dofs; ++j)
+              d_stress[j] = membrane_stress(d_strain[j], mat);
+            for (const unsigned int j : w_dofs)
+              d_moment[j] = bending_moment(d_curv[j], mat);
+            for (const unsigned int i : u_dofs)
+              for (unsigned int j = 0; j < n_dofs; ++j)
+                cell_matrix(i, j) += (d_strain[i] * d_stress[j]) * dA;
+            for (const unsigned int i : w_dofs)
               {
-                d_stress[j] = membrane_stress(d_strain[j], mat);
-                d_moment[j] = bending_moment(d_curv[j], mat);
-              }
-            for (unsigned int i = 0; i < n_dofs; ++i)
-              {
+                for (const unsigned int j : u_dofs)
+                  cell_matrix(i, j) += (d_strain[i] * d_stress[j]) * dA;
                 const Tensor<1, 2> stress_grad_wi = stress * d_grad_w[i];
-                for (unsigned int j = 0; j < n_dofs; ++j)
+                for (const unsigned int j : w_dofs)
                   {
                     double k = d_strain[i] * d_stress[j] + d_curv[i] * d_moment[j] + d2psi * d_w[i] * d_w[j];
                     if (nonlinear)

@@ -46,7 +46,7 @@ namespace
         return std::array<double, 3>{0.0, 0.0, w};
       });
       const LoadLevel level(1.0, 1.0);
-      return {graded_conformed_fraction(*system, state, level),
+      return {graded_conformed_fraction(*system, state),
               measure_conformation(*system, state, level, 1).conformed_fraction};
     }
   };

@@ -74,5 +74,5 @@ namespace nappe
    * share of the area on the ramp), whereas the conformed fraction changes by a Gauss point's whole
    * weight, on a grating cell by a whole column's, whenever a moving front passes one. Collective.
    */
-  double graded_conformed_fraction(const SheetSystem &system, const Vector &state, const LoadLevel &level);
+  double graded_conformed_fraction(const SheetSystem &system, const Vector &state);
 } // namespace nappe
