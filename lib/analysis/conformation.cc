@@ -205,6 +205,7 @@ namespace nappe
   {
     const AdhesionPotential *adhesion = system.model().adhesion();
     AssertThrow(adhesion, ExcMessage("Conformation measures need an adhesion substrate."));
+    system.require_ghosted(state);
     const double peak = adhesion->law().peak_traction_gap(), ramp = adhesion->law().equilibrium_gap();
     // Only the deflection enters: values alone, not the full point states of for_each_cell (this
     // measure is taken at every corrector step of an adhesion path).

@@ -52,6 +52,7 @@ namespace nappe
   GridSamples sample_on_grid(const SheetSystem &system, const Vector &state, const LoadLevel &level, unsigned int nx,
                              unsigned int ny)
   {
+    system.require_ghosted(state);
     GridSamples samples;
     for (const SheetQuantity *q : quantities_for(system.model()))
       if (q->field)

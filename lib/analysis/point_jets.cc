@@ -81,6 +81,7 @@ namespace nappe
   std::vector<PointJet> evaluate_point_jets(const SheetSystem &system, const Vector &state,
                                             const std::vector<Point<2>> &points, std::vector<bool> &found)
   {
+    system.require_ghosted(state);
     Utilities::MPI::RemotePointEvaluation<2> evaluation;
     evaluation.reinit(points, system.dof_handler().get_triangulation(), system.mapping());
     std::vector<Packed> per_cell, buffer;

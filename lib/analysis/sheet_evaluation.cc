@@ -38,6 +38,7 @@ namespace nappe
   void for_each_cell(const SheetSystem &system, const Vector &state, const LoadLevel &level,
                      const std::function<void(const CellPoints &)> &visit)
   {
+    system.require_ghosted(state);
     const QGauss<2> quadrature(system.model().discretization.degree + 1);
     FEValues<2>     fv(system.mapping(), system.finite_element(), quadrature,
                    update_values | update_gradients | update_hessians | update_quadrature_points |

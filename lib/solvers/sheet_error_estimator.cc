@@ -261,6 +261,7 @@ namespace nappe
 
   CellErrorIndicators estimate_cell_errors(const SheetSystem &system, const Vector &state, const LoadLevel &level)
   {
+    system.require_ghosted(state);
     return Estimator(system, state, level).run();
   }
 } // namespace nappe

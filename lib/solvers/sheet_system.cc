@@ -197,6 +197,7 @@ namespace nappe
     dof_handler_.distribute_dofs(fe_);
     owned_dofs_ = dof_handler_.locally_owned_dofs();
     DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_dofs_);
+    split_between_ranks_ = Utilities::MPI::max(relevant_dofs_.n_elements() > owned_dofs_.n_elements() ? 1 : 0, comm_) == 1;
   }
 
   void SheetSystem::setup_constraints()
@@ -399,6 +400,7 @@ namespace nappe
 
   double SheetSystem::deflection_at(const Vector &state, const Point<2> &p) const
   {
+    require_ghosted(state);
     const PointEvaluation eval = evaluate_at(p);
     double                w    = 0.0;
     for (unsigned int i = 0; i < eval.dofs.size(); ++i)
@@ -424,6 +426,17 @@ namespace nappe
   Vector SheetSystem::make_owned_vector() const { return Vector(owned_dofs_, comm_); }
 
   Vector SheetSystem::make_ghosted_vector() const { return Vector(owned_dofs_, relevant_dofs_, comm_); }
+
+  void SheetSystem::require_ghosted(const Vector &state) const
+  {
+    AssertThrow(state.size() == n_dofs(),
+                ExcMessage("A sheet state of " + std::to_string(state.size()) + " entries was passed to a system of " +
+                           std::to_string(n_dofs()) + " unknowns (a state of another mesh?)."));
+    AssertThrow(!split_between_ranks_ || state.has_ghost_elements(),
+                ExcMessage("A sheet state without ghost entries was passed where cells read it on a mesh split "
+                           "between ranks: copy the owned state into make_ghosted_vector() (ghosted = owned; not "
+                           "ghosted = a returned vector, which replaces the ghosted layout)."));
+  }
 
   EnergyParts SheetSystem::energy(const Vector &state, const LoadLevel &level) const
   {

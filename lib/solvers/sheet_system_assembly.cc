@@ -41,6 +41,7 @@ namespace nappe
   EnergyParts SheetSystem::assemble_parts(const Vector &state, const LoadLevel &level, Vector *residual,
                                           SparseMatrix *hessian, Vector *magnitude) const
   {
+    require_ghosted(state);
     if (magnitude)
       *magnitude = 0.0;
     if (residual)

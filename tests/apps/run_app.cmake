@@ -8,6 +8,7 @@
 #   FRESH    a folder emptied before the run (optional), e.g. the run's output directory
 #   ABSENT   glob patterns (joined by "@@") of files that must not exist after the run (optional): results
 #            of a failed run, temporary files of an interrupted write
+#   PRESENT  files (joined by "@@") that must exist after the run (optional): results a rejected case keeps
 string(REPLACE "@@" ";" command "${COMMAND}")
 if(NOT WORKDIR)
   set(WORKDIR ".")
@@ -34,6 +35,14 @@ if(ABSENT)
     file(GLOB found ${pattern})
     if(found)
       message(FATAL_ERROR "files left that must not exist: ${found}\noutput:\n${text}")
+    endif()
+  endforeach()
+endif()
+if(PRESENT)
+  string(REPLACE "@@" ";" files "${PRESENT}")
+  foreach(file ${files})
+    if(NOT EXISTS ${file})
+      message(FATAL_ERROR "file missing that must exist: ${file}\noutput:\n${text}")
     endif()
   endforeach()
 endif()

@@ -26,8 +26,10 @@
 #include <array>
 #include <cmath>
 #include <cstdlib>
+#include <functional>
 #include <iostream>
 #include <memory>
+#include <string>
 #include <vector>
 
 using namespace nappe;
@@ -324,6 +326,53 @@ TEST(SheetConsistency, AdhesionFactorScalesOnlyTheSubstrateTerms)
   Vector difference = Rc;
   difference -= expected;
   EXPECT_LE(difference.l2_norm(), 1e-12 * R1.l2_norm());
+}
+
+namespace
+{
+  /// The message of what @p f throws, or "" if it does not throw.
+  std::string thrown_message(const std::function<void()> &f)
+  {
+    try
+      {
+        f();
+      }
+    catch (const std::exception &e)
+      {
+        return e.what();
+      }
+    return "";
+  }
+} // namespace
+
+// On a mesh split between ranks, cells read their neighbours' dofs from a state's ghost entries. A state
+// without them — the owned vector, or a returned one moved into a ghosted vector, which takes its layout —
+// is refused with a message instead of assembled into a wrong energy; on one rank it is a valid state.
+// A state of another mesh is refused on any number of ranks.
+TEST(SheetConsistency, AStateWithoutGhostEntriesIsRefusedWhereTheMeshIsSplit)
+{
+  const SheetDomain domain = rectangle(true);
+  SheetModel        model;
+  model.material = test_material();
+  SheetSystem        system(model, domain, MPI_COMM_WORLD);
+  const SmoothField  field(domain, 0.01, 0.05, 0.3);
+  const double       energy = system.energy(ghosted(system, feasible_field(system, field)), 1.0).total();
+  Vector             moved_in = system.make_ghosted_vector();
+  moved_in                    = feasible_field(system, field);
+  const std::string  refusal  = thrown_message([&] { system.energy(moved_in, 1.0); });
+  if (dealii::Utilities::MPI::n_mpi_processes(MPI_COMM_WORLD) == 1)
+    {
+      EXPECT_EQ(refusal, "");
+      EXPECT_DOUBLE_EQ(system.energy(moved_in, 1.0).total(), energy);
+    }
+  else
+    EXPECT_NE(refusal.find("without ghost entries"), std::string::npos) << refusal;
+
+  SheetDomain coarser        = domain;
+  coarser.global_refinements = domain.global_refinements - 1;
+  const SheetSystem other(model, coarser, MPI_COMM_WORLD);
+  const std::string mismatch = thrown_message([&] { system.energy(other.make_ghosted_vector(), 1.0); });
+  EXPECT_NE(mismatch.find("another mesh"), std::string::npos) << mismatch;
 }
 
 // The linear Kirchhoff model has a quadratic energy: the residual is exactly linear, so its Taylor

@@ -69,6 +69,14 @@ namespace nappe
     Vector make_owned_vector() const;
     /// A ghosted vector (owned + relevant), as required by assembly and output.
     Vector make_ghosted_vector() const;
+    /**
+     * Throws unless @p state has this system's size and, on a mesh split between ranks, ghost entries:
+     * cells read their neighbours' dofs from them. An owned vector, or a returned vector moved into a
+     * ghosted one (the move takes the temporary's layout; a copy from a named vector fills the ghosts),
+     * would otherwise give silently wrong values on the cells at rank boundaries. The same on every rank
+     * (whether a vector has ghost entries is a property of its parallel layout).
+     */
+    void require_ghosted(const Vector &state) const;
 
     /// The energy at @p state (ghosted) and load level (λ, c), without derivatives.
     EnergyParts energy(const Vector &state, const LoadLevel &level) const;
@@ -160,6 +168,7 @@ namespace nappe
     dealii::DoFHandler<2>                          dof_handler_;
     dealii::IndexSet                               owned_dofs_;
     dealii::IndexSet                               relevant_dofs_;
+    bool                                           split_between_ranks_ = false; ///< some rank has ghost dofs
     dealii::AffineConstraints<double>              constraints_;
     mutable SparseMatrix                           hessian_;
     mutable std::vector<EdgeTerms>                 edge_terms_;     ///< built on first use; empty: not yet
