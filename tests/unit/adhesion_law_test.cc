@@ -8,6 +8,8 @@
 #include <nappe/physics/exponential_cohesive_law.h>
 #include <nappe/physics/vdw_93_law.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -16,6 +18,8 @@
 #include <memory>
 #include <sstream>
 #include <string>
+
+using nappe::test_support::message_of;
 
 namespace
 {
@@ -69,19 +73,6 @@ namespace
     const double scale2 = std::abs(v.d2phi) + Gamma / (h0 * h0);
     EXPECT_NEAR(v.dphi, fd1, 1e-6 * scale1) << law.name() << " at g/h0 = " << g / h0;
     EXPECT_NEAR(v.d2phi, fd2, 1e-6 * scale2) << law.name() << " at g/h0 = " << g / h0;
-  }
-
-  std::string message_of(const std::function<void()> &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        return e.what();
-      }
-    return "";
   }
 
   std::unique_ptr<AdhesionLaw> parse(const std::string &text)

@@ -3,6 +3,8 @@
 #include <nappe/physics/catalogue_sources.h>
 #include <nappe/physics/material_catalogue.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -13,22 +15,11 @@
 #include <sstream>
 #include <string>
 
+using nappe::test_support::message_of;
+
 namespace
 {
   using nappe::MaterialCatalogue;
-
-  std::string message_of(const std::function<void()> &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        return e.what();
-      }
-    return "";
-  }
 
   // A small catalogue written by the test, to exercise an explicit path and the checks.
   std::string write_file(const std::string &name, const std::string &text)

@@ -18,6 +18,7 @@
 #include <nappe/solvers/sheet_system.h>
 
 #include <common/test_substrates.h>
+#include <common/thrown_message.h>
 
 #include <gtest/gtest.h>
 
@@ -34,6 +35,7 @@
 
 using namespace nappe;
 using test_support::reciprocal_vectors;
+using test_support::message_of;
 using test_support::SpringToTopography;
 
 namespace
@@ -328,23 +330,6 @@ TEST(SheetConsistency, AdhesionFactorScalesOnlyTheSubstrateTerms)
   EXPECT_LE(difference.l2_norm(), 1e-12 * R1.l2_norm());
 }
 
-namespace
-{
-  /// The message of what @p f throws, or "" if it does not throw.
-  std::string thrown_message(const std::function<void()> &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        return e.what();
-      }
-    return "";
-  }
-} // namespace
-
 // On a mesh split between ranks, cells read their neighbours' dofs from a state's ghost entries. A state
 // without them — the owned vector, or a returned one moved into a ghosted vector, which takes its layout —
 // is refused with a message instead of assembled into a wrong energy; on one rank it is a valid state.
@@ -359,7 +344,7 @@ TEST(SheetConsistency, AStateWithoutGhostEntriesIsRefusedWhereTheMeshIsSplit)
   const double       energy = system.energy(ghosted(system, feasible_field(system, field)), 1.0).total();
   Vector             moved_in = system.make_ghosted_vector();
   moved_in                    = feasible_field(system, field);
-  const std::string  refusal  = thrown_message([&] { system.energy(moved_in, 1.0); });
+  const std::string  refusal  = message_of([&] { system.energy(moved_in, 1.0); });
   if (dealii::Utilities::MPI::n_mpi_processes(MPI_COMM_WORLD) == 1)
     {
       EXPECT_EQ(refusal, "");
@@ -371,7 +356,7 @@ TEST(SheetConsistency, AStateWithoutGhostEntriesIsRefusedWhereTheMeshIsSplit)
   SheetDomain coarser        = domain;
   coarser.global_refinements = domain.global_refinements - 1;
   const SheetSystem other(model, coarser, MPI_COMM_WORLD);
-  const std::string mismatch = thrown_message([&] { system.energy(other.make_ghosted_vector(), 1.0); });
+  const std::string mismatch = message_of([&] { system.energy(other.make_ghosted_vector(), 1.0); });
   EXPECT_NE(mismatch.find("another mesh"), std::string::npos) << mismatch;
 }
 
