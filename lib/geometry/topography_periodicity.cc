@@ -30,7 +30,10 @@ namespace nappe
         << " (period " << in_nm(l.a1);
       if (!stripes)
         s << " and " << in_nm(l.a2);
-      s << "; it spans " << n << (stripes ? "" : " × " + std::to_string(m)) << " periods)";
+      s << "; it spans " << n << " periods";
+      if (!stripes) // the coefficients of cell = n a₁ + m a₂
+        s << " of the first and " << m << " of the second";
+      s << ")";
       return s.str();
     }
 

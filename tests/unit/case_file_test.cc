@@ -224,6 +224,13 @@ TEST(CaseFile, RefusesACellThatDoesNotMatchTheTopographysPeriod)
   EXPECT_NE(m.find("Length x = 20 nm, Length y = 2 nm"), std::string::npos) << m;
   EXPECT_NE(m.find("(30, 0) nm"), std::string::npos) << m;
   EXPECT_NE(m.find("Periods per cell"), std::string::npos) << m;
+  // An array's cell vector is given by its coefficients on both lattice vectors: (90, 0) nm = 0.9 a₁ + 0 a₂.
+  const std::string a = message_of([] {
+    parse(grating_cell, {"Topography/Type=pillar", "Topography/Array=square", "Topography/Array pitch=100",
+                         "Domain/Length x=90", "Domain/Length y=100"});
+  });
+  EXPECT_NE(a.find("(90, 0) nm is not a whole number of periods"), std::string::npos) << a;
+  EXPECT_NE(a.find("it spans 0.9 periods of the first and 0 of the second"), std::string::npos) << a;
   // A formula is checked by sampling the cell's edges: sin(2πx/30 nm) on a 20 nm cell.
   const std::string f = message_of([] {
     parse(grating_cell, {"Topography/Type=formula", "Topography/Formula/Expression=sin(2*pi*x/30)"});
