@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iomanip>
 #include <sstream>
 
 namespace nappe
@@ -216,7 +217,8 @@ namespace nappe
     std::ostringstream out;
     out << "Strained lattice: " << r.n_atoms << " atoms";
     if (r.periodic)
-      out << " on the commensurate supercell (residual strain " << r.supercell.largest_residual_strain() << ")";
+      out << " on the commensurate supercell (residual strain " << std::setprecision(2)
+          << 100.0 * r.supercell.largest_residual_strain() << " %)" << std::setprecision(6);
     else
       out << " in the region (a flake)";
     if (r.n_off_sheet > 0)
