@@ -16,6 +16,7 @@
 
 #include <nappe/geometry/sinusoidal_topography.h>
 #include <nappe/io/sheet_case.h>
+#include <nappe/runs/pillar_demo.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/vdw_93_law.h>
@@ -76,49 +77,6 @@ namespace
     return p;
   }
 
-  /// MoS2 laid down on a square array of rounded SiO2 pillars (pitch 100 nm, height 8 nm, radius 20 nm), Γ
-  /// 0.22 J/m²: the demo scenario of nappe-solve; the entries not set here keep their defaults.
-  const char *pillar_cell = R"(
-subsection Sheet
-  set Material = MoS2
-end
-subsection Domain
-  set Shape = rectangle
-  set Length x = 100
-  set Length y = 100
-  set Periodic = true
-  set Coarse cells x = 4
-  set Coarse cells y = 4
-end
-subsection Edges
-  set Conditions =
-end
-subsection Substrate
-  set Enabled = true
-  set Protocol = laid down
-end
-subsection Topography
-  set Type = pillar
-  set Array = square
-  set Array pitch = 100
-  subsection Pillar
-    set Height = 8
-    set Radius = 20
-    set Edge radius = 4
-    set Foot radius = 4
-    set Sidewall angle = 70
-  end
-end
-subsection Adhesion
-  set Work of adhesion = 0.22
-  set Equilibrium separation = 0.5
-end
-subsection Solver
-  set Load steps = 1
-  set Linear solver = direct LDLT
-end
-)";
-
   double peak_memory_mb()
   {
     rusage usage;
@@ -167,9 +125,12 @@ end
   {
     dealii::ParameterHandler prm;
     nappe::declare_sheet_case_parameters(prm);
-    prm.parse_input_from_string(pillar_cell);
+    prm.parse_input_from_string(nappe::pillar_demo_case());
     prm.enter_subsection("Domain");
     prm.set("Global refinements", std::to_string(refinements));
+    prm.leave_subsection();
+    prm.enter_subsection("Solver");
+    prm.set("Linear solver", "direct LDLT");
     prm.leave_subsection();
     nappe::SheetSolution solved = nappe::solve_sheet_problem(nappe::parse_sheet_case(prm).problem, MPI_COMM_WORLD);
     AssertThrow(solved.path.converged, dealii::ExcMessage("pillar cell: " + solved.path.message));

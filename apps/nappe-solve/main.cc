@@ -12,62 +12,11 @@
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/runs/app_driver.h>
 #include <nappe/runs/case_run.h>
+#include <nappe/runs/pillar_demo.h>
 
 #include <deal.II/base/mpi.h>
 
 #include <iostream>
-
-namespace
-{
-  // Demo scenario (our own): a MoS2 monolayer transferred onto a square array of rounded SiO2
-  // nanopillars (pitch 100 nm, height 8 nm, radius 20 nm): does it tent between the pillars?
-  const char *demo_case = R"(
-subsection Case
-  set Title = demo: MoS2 monolayer laid on a square array of rounded SiO2 nanopillars
-end
-subsection Sheet
-  set Material = MoS2
-end
-subsection Domain
-  set Shape = rectangle
-  set Length x = 100
-  set Length y = 100
-  set Periodic = true
-  set Coarse cells x = 4
-  set Coarse cells y = 4
-  set Global refinements = 3
-end
-subsection Edges
-  set Conditions =
-end
-subsection Substrate
-  set Enabled = true
-  set Protocol = laid down
-end
-subsection Topography
-  set Type = pillar
-  set Array = square
-  set Array pitch = 100
-  subsection Pillar
-    set Height = 8
-    set Radius = 20
-    set Edge radius = 4
-    set Foot radius = 4
-    set Sidewall angle = 70
-  end
-end
-subsection Adhesion
-  set Work of adhesion = 0.22
-  set Equilibrium separation = 0.5
-end
-subsection Solver
-  set Load steps = 1
-end
-subsection Output
-  set Base name = demo-pillars
-end
-)";
-} // namespace
 
 int main(int argc, char **argv)
 {
@@ -76,7 +25,7 @@ int main(int argc, char **argv)
   app.description = "solves a sheet case (a monolayer on a substrate topography, or a loaded sheet) to a certified "
                     "stable equilibrium and reports the conformation, strains and energies; writes <stem>.json, CSV "
                     "tables and VTU fields.";
-  app.demo_case   = demo_case;
+  app.demo_case   = nappe::pillar_demo_case();
   app.commands["--list-materials"] = [](std::ostream &out) {
     const nappe::MaterialCatalogue catalogue;
     catalogue.print(out);
