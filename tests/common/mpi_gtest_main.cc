@@ -10,7 +10,18 @@
 
 int main(int argc, char **argv)
 {
+#ifdef __SANITIZE_ADDRESS__
+  // Sanitizer build: what Open MPI (and what deal.II starts with it) allocates while it starts up is
+  // theirs to keep. Some of it comes from components that MPI_Init itself loads, registers and unloads
+  // again, so no suppression could name them; ignoring the allocations of start-up lets the leak check
+  // use the fast unwinder (frame pointers), several times faster than the DWARF unwinder on every
+  // allocation that suppressions by library name would need.
+  __lsan_disable();
+#endif
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
+#ifdef __SANITIZE_ADDRESS__
+  __lsan_enable();
+#endif
   ::testing::InitGoogleTest(&argc, argv);
 
   const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);

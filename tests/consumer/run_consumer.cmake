@@ -12,7 +12,7 @@ set(flags)
 if(CONSUMER_FLAGS)
   # The consumer ends in MPI_Finalize, where Open MPI unloads its components: no leak check (as for the apps).
   set(flags -DCMAKE_CXX_FLAGS=${CONSUMER_FLAGS} -DCMAKE_EXE_LINKER_FLAGS=${CONSUMER_FLAGS})
-  string(REPLACE "detect_leaks=1:fast_unwind_on_malloc=0" "detect_leaks=0" asan_options "$ENV{ASAN_OPTIONS}")
+  string(REPLACE "detect_leaks=1" "detect_leaks=0" asan_options "$ENV{ASAN_OPTIONS}")
   set(ENV{ASAN_OPTIONS} "${asan_options}")
 endif()
 run(${CMAKE_COMMAND} -S ${CONSUMER_SOURCE_DIR} -B ${WORK_DIR}/build -DCMAKE_BUILD_TYPE=Release
