@@ -9,6 +9,8 @@
 #include <nappe/physics/material_catalogue.h>
 #include <nappe/physics/strain_gradient.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <cctype>
@@ -19,6 +21,7 @@
 namespace
 {
   using namespace nappe;
+  using test_support::collapsed_message_of;
   using dealii::Point;
   using dealii::SymmetricTensor;
   using dealii::Tensor;
@@ -31,26 +34,6 @@ namespace
     SymmetricTensor<2, 2> e;
     e[0][0] = xx, e[1][1] = yy, e[0][1] = xy;
     return e;
-  }
-
-  std::string message_of(const std::function<void()> &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        // deal.II wraps long messages over several lines: compare with single spaces.
-        std::string text;
-        for (const char c : std::string(e.what()))
-          if (!std::isspace(static_cast<unsigned char>(c)))
-            text += c;
-          else if (!text.empty() && text.back() != ' ')
-            text += ' ';
-        return text;
-      }
-    return "";
   }
 
   SheetMaterial catalogue_material(const std::string &name) { return MaterialCatalogue().material(name); }
@@ -181,14 +164,14 @@ TEST(ElectronicFields, StrainGradientOfTheVonKarmanTermMatchesCentralDifferences
 
 TEST(ElectronicFields, MissingConstantsAreRefusedNamingTheCatalogueEntry)
 {
-  EXPECT_NE(message_of([] { PseudoGaugeCoupling::of(catalogue_material("MoS2")); }).find("honeycomb"),
+  EXPECT_NE(collapsed_message_of([] { PseudoGaugeCoupling::of(catalogue_material("MoS2")); }).find("honeycomb"),
             std::string::npos);
-  EXPECT_NE(message_of([] { PseudoGaugeCoupling::of(catalogue_material("hBN")); }).find("Hopping decay beta"),
+  EXPECT_NE(collapsed_message_of([] { PseudoGaugeCoupling::of(catalogue_material("hBN")); }).find("Hopping decay beta"),
             std::string::npos);
-  const std::string no_gap = message_of([] { biaxial_gap_coefficient(catalogue_material("graphene")); });
+  const std::string no_gap = collapsed_message_of([] { biaxial_gap_coefficient(catalogue_material("graphene")); });
   EXPECT_NE(no_gap.find("Biaxial gap coefficient"), std::string::npos) << no_gap;
-  EXPECT_NE(message_of([] { deformation_potential_constant(catalogue_material("WSe2")); }).find("Deformation potential"),
-            std::string::npos);
+  const std::string no_potential = collapsed_message_of([] { deformation_potential_constant(catalogue_material("WSe2")); });
+  EXPECT_NE(no_potential.find("Deformation potential"), std::string::npos) << no_potential;
 }
 
 TEST(MaterialCatalogue, RejectsAnUnsourcedElectronicCoefficient)
@@ -197,7 +180,7 @@ TEST(MaterialCatalogue, RejectsAnUnsourcedElectronicCoefficient)
   std::ofstream(path) << "subsection Materials\n  subsection foil\n    set 2D Young modulus = 100\n"
                          "    set Poisson ratio = 0.3\n    set Bending rigidity = 2\n    set Nominal thickness = 0.5\n"
                          "    subsection Electronic\n      set Biaxial gap coefficient = -50\n    end\n  end\nend\n";
-  const std::string message = message_of([&] { MaterialCatalogue catalogue(path); });
+  const std::string message = collapsed_message_of([&] { MaterialCatalogue catalogue(path); });
   EXPECT_NE(message.find("Materials/foil/Electronic/Biaxial gap coefficient source"), std::string::npos) << message;
 }
 

@@ -4,6 +4,8 @@
 #include <nappe/geometry/height_map.h>
 #include <nappe/geometry/sinusoidal_topography.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <cctype>
@@ -11,6 +13,7 @@
 #include <fstream>
 
 using namespace nappe;
+using test_support::collapsed_message_of;
 using dealii::Point;
 using dealii::Tensor;
 
@@ -45,27 +48,6 @@ namespace
     return name;
   }
 
-  /// The message of the exception thrown by f with every run of white space collapsed to one blank
-  /// (deal.II wraps long messages), or "" if none.
-  template <typename F>
-  std::string error_of(const F &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        std::string out;
-        for (const char c : std::string(e.what()))
-          if (!std::isspace(static_cast<unsigned char>(c)))
-            out += c;
-          else if (!out.empty() && out.back() != ' ')
-            out += ' ';
-        return out;
-      }
-    return "";
-  }
 } // namespace
 
 
@@ -234,41 +216,41 @@ TEST(HeightMap, BadFilesGiveErrorsNamingTheFileAndLine)
   const std::string rows = "1 2 3 4\n1 2 3 4\n1 2 3 4\n1 2 3 4\n";
 
   std::string f   = write_file("bad_token_map.txt", "1 2 3 4\n1 2 x3 4\n" + rows);
-  std::string msg = error_of([&] { HeightMap::read(f, o); });
+  std::string msg = collapsed_message_of([&] { HeightMap::read(f, o); });
   EXPECT_NE(msg.find("bad_token_map.txt"), std::string::npos) << msg;
   EXPECT_NE(msg.find("line 2"), std::string::npos) << msg;
   EXPECT_NE(msg.find("expected a height"), std::string::npos) << msg;
   std::remove(f.c_str());
 
   f   = write_file("ragged_map.txt", "# header\n1 2 3 4\n1 2 3 4\n1 2 3\n1 2 3 4\n");
-  msg = error_of([&] { HeightMap::read(f, o); });
+  msg = collapsed_message_of([&] { HeightMap::read(f, o); });
   EXPECT_NE(msg.find("ragged_map.txt"), std::string::npos) << msg;
   EXPECT_NE(msg.find("line 4"), std::string::npos) << msg;
   EXPECT_NE(msg.find("expected 4 heights"), std::string::npos) << msg;
   std::remove(f.c_str());
 
   f   = write_file("nan_map.txt", "1 2 3 4\n1 2 3 4\n1 nan 3 4\n1 2 3 4\n");
-  msg = error_of([&] { HeightMap::read(f, o); });
+  msg = collapsed_message_of([&] { HeightMap::read(f, o); });
   EXPECT_NE(msg.find("nan_map.txt"), std::string::npos) << msg;
   EXPECT_NE(msg.find("line 3"), std::string::npos) << msg;
   EXPECT_NE(msg.find("finite"), std::string::npos) << msg;
   std::remove(f.c_str());
 
   f   = write_file("small_map.txt", "1 2 3 4\n1 2 3 4\n");
-  msg = error_of([&] { HeightMap::read(f, o); });
+  msg = collapsed_message_of([&] { HeightMap::read(f, o); });
   EXPECT_NE(msg.find("small_map.txt"), std::string::npos) << msg;
   EXPECT_NE(msg.find("at least 4 rows"), std::string::npos) << msg;
   std::remove(f.c_str());
 
   o.format = HeightMap::ReadOptions::Format::xyz;
   f        = write_file("short_xyz.txt", "0 0 1\n1 0 1\n2 0\n");
-  msg      = error_of([&] { HeightMap::read(f, o); });
+  msg      = collapsed_message_of([&] { HeightMap::read(f, o); });
   EXPECT_NE(msg.find("short_xyz.txt"), std::string::npos) << msg;
   EXPECT_NE(msg.find("line 3"), std::string::npos) << msg;
   EXPECT_NE(msg.find("three numbers"), std::string::npos) << msg;
   std::remove(f.c_str());
 
-  msg = error_of([&] { HeightMap::read("no_such_height_map.txt", o); });
+  msg = collapsed_message_of([&] { HeightMap::read("no_such_height_map.txt", o); });
   EXPECT_NE(msg.find("no_such_height_map.txt"), std::string::npos) << msg;
-  EXPECT_NE(error_of([] { length_unit_from_name("furlong"); }).find("furlong"), std::string::npos);
+  EXPECT_NE(collapsed_message_of([] { length_unit_from_name("furlong"); }).find("furlong"), std::string::npos);
 }

@@ -19,6 +19,8 @@
 #include <nappe/geometry/topography_factory.h>
 #include <nappe/base/collective.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <cstdint>
@@ -29,6 +31,7 @@
 #include <sstream>
 
 using namespace nappe;
+using test_support::user_message_of;
 using dealii::Point;
 
 namespace
@@ -36,21 +39,6 @@ namespace
   constexpr double nm = units::nanometer;
 
   Point<2> P(double x_nm, double y_nm) { return Point<2>(x_nm * nm, y_nm * nm); }
-
-  /// What a driver prints for the exception @p f throws (user_message), or "" if it throws none.
-  template <typename F>
-  std::string message_of(const F &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        return user_message(e);
-      }
-    return "";
-  }
 
   /// A message a user can read: one line (a trailing line break allowed), printable characters only (UTF-8
   /// letters allowed), none of deal.II's assertion text.
@@ -141,7 +129,7 @@ namespace
   /// The message of make_sheet_mesh on @p file (0 refinements), or "" if it builds.
   std::string mesh_message(const std::string &file, const bool periodic = false)
   {
-    return message_of([&] {
+    return user_message_of([&] {
       SheetDomain d;
       d.shape              = SheetDomain::Shape::mesh_file;
       d.mesh_file          = file;
@@ -160,17 +148,17 @@ TEST(FormulaBadInput, SyntaxErrorsGiveOneLineNamingTheEntryAndNothingElseIsPrint
   for (const std::string expression : {"sin(x*", "A*sin(x)", "x + (y", "x;y", "   "})
     {
       std::string m;
-      const std::string printed = cerr_during([&] { m = message_of([&] { FormulaTopography f(expression); }); });
+      const std::string printed = cerr_during([&] { m = user_message_of([&] { FormulaTopography f(expression); }); });
       EXPECT_TRUE(is_clean_one_line(m)) << expression;
       EXPECT_TRUE(has(m, "Topography/Formula/Expression")) << m;
       EXPECT_TRUE(has(m, "expected")) << m;
       EXPECT_EQ(printed, "") << "printed on standard error for '" << expression << "'";
     }
-  const std::string m = message_of([] { FormulaTopography f("A*sin(x)"); });
+  const std::string m = user_message_of([] { FormulaTopography f("A*sin(x)"); });
   EXPECT_TRUE(has(m, "'A*sin(x)'")) << m;
   EXPECT_TRUE(has(m, "\"A\"")) << m;
   EXPECT_TRUE(has(m, "no Constants defined")) << m;
-  EXPECT_TRUE(has(message_of([] { FormulaTopography f("x*k", {{"2k", 1.0}}); }), "constant name '2k'"));
+  EXPECT_TRUE(has(user_message_of([] { FormulaTopography f("x*k", {{"2k", 1.0}}); }), "constant name '2k'"));
   // A formula defining its constant is accepted (the same text as above, with A given).
   EXPECT_NEAR(FormulaTopography("A*sin(x)", {{"A", 2.0}}).height(P(0.5, 0)), 2.0 * std::sin(0.5) * nm, 1e-20);
 }
@@ -181,15 +169,16 @@ TEST(FormulaBadInput, NonFiniteValuesAreReportedWithThePointWhereTheyAreSampled)
   const FormulaTopography pole("1/(x-x)"), root("sqrt(-1-x*x)"), huge("1e308");
   for (const FormulaTopography *f : {&pole, &root, &huge})
     {
-      const std::string m = message_of([&] { f->height(P(10, 20)); });
+      const std::string m = user_message_of([&] { f->height(P(10, 20)); });
       EXPECT_TRUE(is_clean_one_line(m)) << m;
       EXPECT_TRUE(has(m, "Topography/Formula/Expression")) << m;
       EXPECT_TRUE(has(m, "(10 nm, 20 nm)")) << m;
       EXPECT_TRUE(has(m, "expected a finite height")) << m;
     }
-  EXPECT_TRUE(has(message_of([&] { pole.height(P(1, 2)); }), "is inf")) << message_of([&] { pole.height(P(1, 2)); });
-  EXPECT_TRUE(has(message_of([&] { root.height(P(1, 2)); }), "nan"));
-  EXPECT_TRUE(has(message_of([&] { pole.gradient(P(1, 2)); }), "expected a finite slope"));
+  const std::string infinite = user_message_of([&] { pole.height(P(1, 2)); });
+  EXPECT_TRUE(has(infinite, "is inf")) << infinite;
+  EXPECT_TRUE(has(user_message_of([&] { root.height(P(1, 2)); }), "nan"));
+  EXPECT_TRUE(has(user_message_of([&] { pole.gradient(P(1, 2)); }), "expected a finite slope"));
 }
 
 TEST(HeightMapBadInput, AHeightOf1e308IsRefusedAtItsLine)
@@ -198,7 +187,7 @@ TEST(HeightMapBadInput, AHeightOf1e308IsRefusedAtItsLine)
   o.spacing = dealii::Tensor<1, 2>({1 * nm, 1 * nm});
   const std::string f =
     write("huge_height_map.txt", "0 0 0 0\n0 0 0 0\n0 0 1e308 0\n0 0 0 0\n");
-  const std::string m = message_of([&] { HeightMap::read(f, o); });
+  const std::string m = user_message_of([&] { HeightMap::read(f, o); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "huge_height_map.txt', line 3")) << m;
   EXPECT_TRUE(has(m, "|height| <= 1e+06 nm")) << m;
@@ -210,7 +199,7 @@ TEST(HeightMapBadInput, RawBytesAreShownEscaped)
   HeightMap::ReadOptions o;
   o.spacing = dealii::Tensor<1, 2>({1 * nm, 1 * nm});
   const std::string f = write("binary_height_map.txt", "1 2 3 4\n1 \x01\xff\x1b[2J 3 4\n");
-  const std::string m = message_of([&] { HeightMap::read(f, o); });
+  const std::string m = user_message_of([&] { HeightMap::read(f, o); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "line 2")) << m;
   EXPECT_TRUE(has(m, "\\x01\\xff\\x1b[2J")) << m;
@@ -222,7 +211,7 @@ TEST(HeightMapBadInput, ADirectoryOrAnOversizedSmoothingIsRefusedByName)
   HeightMap::ReadOptions o;
   o.spacing = dealii::Tensor<1, 2>({1 * nm, 1 * nm});
   std::filesystem::create_directory("height_map_dir.txt");
-  const std::string m = message_of([&] { HeightMap::read("height_map_dir.txt", o); });
+  const std::string m = user_message_of([&] { HeightMap::read("height_map_dir.txt", o); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "'height_map_dir.txt' is a directory")) << m;
   std::filesystem::remove("height_map_dir.txt");
@@ -230,7 +219,7 @@ TEST(HeightMapBadInput, ADirectoryOrAnOversizedSmoothingIsRefusedByName)
   // Before: a width of 1e300 nm overflowed the conversion of 4 sigma to a number of nodes.
   HeightMap map(P(0, 0), dealii::Tensor<1, 2>({1 * nm, 1 * nm}), 4, 4, std::vector<double>(16, 0.0),
                 HeightMap::Extension::periodic);
-  const std::string s = message_of([&] { map.smooth(1e300 * nm); });
+  const std::string s = user_message_of([&] { map.smooth(1e300 * nm); });
   EXPECT_TRUE(is_clean_one_line(s)) << s;
   EXPECT_TRUE(has(s, "smoothing width")) << s;
 }
@@ -239,7 +228,7 @@ TEST(StlBadInput, BinaryFileWithSolidHeaderAndWrongCountIsReportedAsBinary)
 {
   // Before: "ASCII STL file …, line 1: expected 'facet normal …'" followed by the header's raw bytes.
   const std::string f = binary_stl("solid_header_binary.stl", 5, {{0, 0, 0, 1, 0, 0, 0, 1, 0}});
-  const std::string m = message_of([&] { StlTopography s(f); });
+  const std::string m = user_message_of([&] { StlTopography s(f); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "binary STL file 'solid_header_binary.stl'")) << m;
   EXPECT_TRUE(has(m, "announces 5 facets")) << m;
@@ -252,7 +241,7 @@ TEST(StlBadInput, ADirectoryIsNamedAsSuchNotGivenAByteCount)
 {
   // Before: "… the file has 9223372036854775807 bytes".
   std::filesystem::create_directory("stl_dir.stl");
-  const std::string m = message_of([] { StlTopography s("stl_dir.stl"); });
+  const std::string m = user_message_of([] { StlTopography s("stl_dir.stl"); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "'stl_dir.stl' is a directory")) << m;
   EXPECT_FALSE(has(m, "bytes")) << m;
@@ -263,7 +252,7 @@ TEST(StlBadInput, HeightsScaledBy1e30AreRefusedNamingTheFacetOrLine)
 {
   const float       z = 1e30f;
   const std::string b = binary_stl("scaled_binary.stl", 2, {{0, 0, 0, 1, 0, 0, 0, 1, 0}, {1, 0, 0, 1, 1, z, 0, 1, 0}});
-  std::string       m = message_of([&] { StlTopography s(b); });
+  std::string       m = user_message_of([&] { StlTopography s(b); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "facet 2 has a vertex at height z = 1e+30")) << m;
   EXPECT_TRUE(has(m, "|z| <= 1e+06 nm")) << m;
@@ -271,7 +260,7 @@ TEST(StlBadInput, HeightsScaledBy1e30AreRefusedNamingTheFacetOrLine)
 
   const std::string a = write("scaled_ascii.stl", "solid s\nfacet normal 0 0 1\nouter loop\nvertex 0 0 0\n"
                                                   "vertex 1 0 1e30\nvertex 0 1 0\nendloop\nendfacet\nendsolid s\n");
-  m = message_of([&] { StlTopography s(a); });
+  m = user_message_of([&] { StlTopography s(a); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "'scaled_ascii.stl', line 5")) << m;
   std::filesystem::remove(a);
@@ -280,7 +269,7 @@ TEST(StlBadInput, HeightsScaledBy1e30AreRefusedNamingTheFacetOrLine)
 TEST(StlBadInput, RawBytesInAnAsciiFileAreShownEscaped)
 {
   const std::string f = write("garbage_ascii.stl", "solid " + std::string(90, 'n') + "\n\x07\x08\xc3\x28 vertex\n");
-  const std::string m = message_of([&] { StlTopography s(f); });
+  const std::string m = user_message_of([&] { StlTopography s(f); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "line 2")) << m;
   EXPECT_TRUE(has(m, "\\x07\\x08\\xc3(")) << m;
@@ -361,7 +350,7 @@ TEST(FormulaBadInput, ConstantsWithRawBytesAreShownEscaped)
   prm.set("Constants", std::string("A\x1a\x1b") + "5");
   prm.leave_subsection();
   prm.leave_subsection();
-  const std::string m = message_of([&] { TopographyFactory::parse_parameters(prm); });
+  const std::string m = user_message_of([&] { TopographyFactory::parse_parameters(prm); });
   EXPECT_TRUE(is_clean_one_line(m)) << m;
   EXPECT_TRUE(has(m, "Topography/Formula/Constants: expected 'name=value', found 'A\\x1a\\x1b5'")) << m;
 }
@@ -372,7 +361,7 @@ TEST(SweepBadInput, AStepCountBeyondTheLimitIsRefusedBeforeAnyPointIsBuilt)
   const std::string f = write("huge_sweep.prm", "subsection Sweep\n  set Case file = no_case.prm\n"
                                                 "  subsection Axis 1\n    set Entries = Loads/Pressure\n"
                                                 "    set Values = from 0.5 to 2 in 100000000 steps\n  end\nend\n");
-  const std::string m = message_of([&] { read_sweep(f); });
+  const std::string m = user_message_of([&] { read_sweep(f); });
   EXPECT_TRUE(has(m, "Sweep/Axis 1/Values")) << m;
   EXPECT_TRUE(has(m, "100000000 steps exceed Sweep/Point limit")) << m;
   std::filesystem::remove(f);

@@ -6,6 +6,8 @@
 #include <nappe/geometry/radial_features.h>
 #include <nappe/geometry/stl_topography.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <array>
@@ -16,6 +18,7 @@
 #include <fstream>
 
 using namespace nappe;
+using test_support::collapsed_message_of;
 using dealii::Point;
 
 namespace
@@ -84,26 +87,6 @@ namespace
       }
   }
 
-  template <typename F>
-  std::string error_of(const F &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        std::string out;
-        for (const char c : std::string(e.what()))
-          if (!std::isspace(static_cast<unsigned char>(c)))
-            out += c;
-          else if (!out.empty() && out.back() != ' ')
-            out += ' ';
-        return out;
-      }
-    return "";
-  }
-
   /// Max height [m] and gradient errors of stl against the bump over interior points.
   std::pair<double, double> error_against_bump(const Topography &stl)
   {
@@ -162,7 +145,7 @@ TEST(StlTopography, OutsideTheFootprintErrsOrReturnsTheChosenHeight)
 {
   write_ascii("stl_bump_small.stl", bump_facets(20));
   const StlTopography strict("stl_bump_small.stl");
-  const std::string   msg = error_of([&] { strict.height(P(75, 0)); });
+  const std::string   msg = collapsed_message_of([&] { strict.height(P(75, 0)); });
   EXPECT_NE(msg.find("stl_bump_small.stl"), std::string::npos) << msg;
   EXPECT_NE(msg.find("75 nm"), std::string::npos) << msg;
   StlTopography::Options o;
@@ -192,7 +175,7 @@ TEST(StlTopography, BadFilesGiveErrorsNamingTheFileAndLine)
     std::ofstream("stl_bad_vertex.stl") << "solid x\n facet normal 0 0 1\n  outer loop\n   vertex 0 0 0\n"
                                            "   vertex 1 zero 0\n   vertex 0 1 0\n  endloop\n endfacet\nendsolid x\n";
   }
-  std::string msg = error_of([] { StlTopography("stl_bad_vertex.stl"); });
+  std::string msg = collapsed_message_of([] { StlTopography("stl_bad_vertex.stl"); });
   EXPECT_NE(msg.find("stl_bad_vertex.stl"), std::string::npos) << msg;
   EXPECT_NE(msg.find("line 5"), std::string::npos) << msg;
   EXPECT_NE(msg.find("finite number"), std::string::npos) << msg;
@@ -201,7 +184,7 @@ TEST(StlTopography, BadFilesGiveErrorsNamingTheFileAndLine)
     std::ofstream("stl_missing_endloop.stl") << "solid x\n facet normal 0 0 1\n  outer loop\n   vertex 0 0 0\n"
                                                 "   vertex 1 0 0\n   vertex 0 1 0\n endfacet\nendsolid x\n";
   }
-  msg = error_of([] { StlTopography("stl_missing_endloop.stl"); });
+  msg = collapsed_message_of([] { StlTopography("stl_missing_endloop.stl"); });
   EXPECT_NE(msg.find("line 7"), std::string::npos) << msg;
   EXPECT_NE(msg.find("'endloop'"), std::string::npos) << msg;
 
@@ -213,12 +196,12 @@ TEST(StlTopography, BadFilesGiveErrorsNamingTheFileAndLine)
     out.write(reinterpret_cast<const char *>(&n), 4);
     out << std::string(120, '\0');
   }
-  msg = error_of([] { StlTopography("stl_truncated.stl"); });
+  msg = collapsed_message_of([] { StlTopography("stl_truncated.stl"); });
   EXPECT_NE(msg.find("stl_truncated.stl"), std::string::npos) << msg;
   EXPECT_NE(msg.find("10 facets"), std::string::npos) << msg;
   EXPECT_NE(msg.find("204 bytes"), std::string::npos) << msg;
 
-  msg = error_of([] { StlTopography("stl_does_not_exist.stl"); });
+  msg = collapsed_message_of([] { StlTopography("stl_does_not_exist.stl"); });
   EXPECT_NE(msg.find("stl_does_not_exist.stl"), std::string::npos) << msg;
   for (const char *f : {"stl_bad_vertex.stl", "stl_missing_endloop.stl", "stl_truncated.stl"})
     std::remove(f);

@@ -13,6 +13,8 @@
 #include <nappe/runs/case_run.h>
 #include <nappe/runs/sweep_run.h>
 
+#include <common/thrown_message.h>
+
 #include <gtest/gtest.h>
 
 #include <unistd.h>
@@ -23,6 +25,7 @@
 #include <sstream>
 
 using namespace nappe;
+using test_support::user_message_of;
 namespace fs = std::filesystem;
 
 namespace
@@ -119,18 +122,6 @@ end
     return at == std::string::npos ? text : text.replace(at, from.size(), to);
   }
 
-  std::string message_of(const std::function<void()> &f)
-  {
-    try
-      {
-        f();
-      }
-    catch (const std::exception &e)
-      {
-        return user_message(e);
-      }
-    return "";
-  }
 } // namespace
 
 TEST(SweepFile, ReadsAxesAndPlacesTheOutputNextToTheSweepFile)
@@ -147,19 +138,19 @@ TEST(SweepFile, ReadsAxesAndPlacesTheOutputNextToTheSweepFile)
 TEST(SweepFile, RejectsRepeatedValuesAndOversizedSweepsBeforeAnyWork)
 {
   const Scratch repeated("10, 20, 10");
-  EXPECT_NE(message_of([&] { read_sweep(repeated.sweep()); }).find("listed twice"), std::string::npos);
+  EXPECT_NE(user_message_of([&] { read_sweep(repeated.sweep()); }).find("listed twice"), std::string::npos);
   const Scratch     huge("from 0.5 to 2 in 100000000 steps");
-  const std::string m = message_of([&] { read_sweep(huge.sweep()); });
+  const std::string m = user_message_of([&] { read_sweep(huge.sweep()); });
   EXPECT_NE(m.find("Point limit"), std::string::npos) << m;
   const Scratch limited("10, 20, 30", "  set Point limit = 2\n");
-  EXPECT_NE(message_of([&] { read_sweep(limited.sweep()); }).find("Point limit = 2"), std::string::npos);
+  EXPECT_NE(user_message_of([&] { read_sweep(limited.sweep()); }).find("Point limit = 2"), std::string::npos);
 }
 
 TEST(SweepFile, NamesTheFirstPointWhoseCaseIsInvalid)
 {
   // Every point is checked when the file is read (one handler serves all points).
   const Scratch     s("graphene, MoS2, unobtainium, hBN", "", "Sheet/Material");
-  const std::string m = message_of([&] { read_sweep(s.sweep()); });
+  const std::string m = user_message_of([&] { read_sweep(s.sweep()); });
   EXPECT_NE(m.find("point 3 is not a valid case"), std::string::npos) << m;
   EXPECT_NE(m.find("unobtainium"), std::string::npos) << m;
   const Scratch     valid("graphene, MoS2, WSe2", "", "Sheet/Material");
@@ -176,10 +167,10 @@ TEST(SweepFile, ACaseFileNameTooLongForTheSystemIsAMissingFile)
   const std::string name(300, 'c');
   std::ofstream(s.dir / "long.prm") << "subsection Sweep\n  set Case file = " << name << "\n  subsection Axis 1\n"
                                     << "    set Entries = Loads/Pressure\n    set Values = 1, 2\n  end\nend\n";
-  const std::string m = message_of([&] { read_sweep((s.dir / "long.prm").string()); });
+  const std::string m = user_message_of([&] { read_sweep((s.dir / "long.prm").string()); });
   EXPECT_NE(m.find("Sweep/Case file: '"), std::string::npos) << m;
   EXPECT_NE(m.find("does not exist (File name too long)"), std::string::npos) << m;
-  const std::string c = message_of([&] {
+  const std::string c = user_message_of([&] {
     dealii::ParameterHandler prm;
     read_parameter_file(prm, (s.dir / name).string());
   });
@@ -284,7 +275,7 @@ TEST(SweepRun, AFolderLockedByALiveProcessIsRefused)
   char host[256] = {};
   gethostname(host, sizeof(host) - 1);
   std::ofstream(fs::path(spec.output_directory) / "sweep.lock") << ::getppid() << " " << host << "\n";
-  const std::string m = message_of([&] { run_sweep(spec, MPI_COMM_SELF, 100, nullptr); });
+  const std::string m = user_message_of([&] { run_sweep(spec, MPI_COMM_SELF, 100, nullptr); });
   EXPECT_NE(m.find("being written by process " + std::to_string(::getppid())), std::string::npos) << m;
   EXPECT_TRUE(fs::exists(fs::path(spec.output_directory) / "sweep.lock")); // not ours to remove
 }
