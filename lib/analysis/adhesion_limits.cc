@@ -155,19 +155,31 @@ namespace nappe
       for (const auto &t : find_transitions(*path, s.target_fraction))
         limits.transitions.push_back(t);
     limits.largest = largest_fraction({&limits.lowering, &limits.raising});
-    if (limits.largest.fraction < s.target_fraction && !limits.lowering.points.empty() &&
-        !limits.raising.points.empty())
-      {
-        std::ostringstream why;
-        why << std::setprecision(3) << "no state reaches the target conformed fraction " << 100 * s.target_fraction
-            << " %: the largest is " << 100 * limits.largest.fraction << " % ("
-            << (limits.largest.lowering ? "lowering" : "raising") << " path, Γ = " << limits.largest.work_of_adhesion
-            << " J/m²); the transitions tell how the sheet gets there";
-        for (AdhesionThreshold *t : {&limits.hold, &limits.snap, &limits.equal_energy})
-          if (!t->found)
-            t->how = why.str();
-      }
+    explain_unreached_target(limits, s.target_fraction);
     return limits;
+  }
+
+  void explain_unreached_target(AdhesionLimits &limits, double target)
+  {
+    const AdhesionPath &down = limits.lowering, &up = limits.raising;
+    if (limits.largest.fraction >= target || (down.points.empty() && up.points.empty()))
+      return;
+    std::ostringstream why;
+    why << std::setprecision(3) << "no certified state reaches the target conformed fraction " << 100 * target
+        << " %: the largest is " << 100 * limits.largest.fraction << " % ("
+        << (limits.largest.lowering ? "lowering" : "raising") << " path, Γ = " << limits.largest.work_of_adhesion
+        << " J/m²)";
+    const AdhesionPath *unfinished = !down.complete ? &down : !up.complete ? &up : nullptr;
+    if (unfinished == nullptr)
+      why << "; the transitions tell how the sheet gets there";
+    else
+      why << "; the " << (unfinished->lowering ? "lowering" : "raising") << " path "
+          << (unfinished->points.empty() ? "has no certified state" : "stopped early")
+          << " (its message says why), so whether any Γ in the range reaches the target is unknown; widening the "
+             "range will not tell";
+    for (AdhesionThreshold *t : {&limits.hold, &limits.snap, &limits.equal_energy})
+      if (!t->found)
+        t->how = why.str();
   }
 
   AdhesionPathSettings with_stops(AdhesionPathSettings s, std::vector<double> stops)

@@ -105,6 +105,62 @@ TEST(ThresholdFunctions, ThresholdsOutsideTheRangeSayWhichEndToMove)
   EXPECT_NE(no_snap.how.find("Highest work of adhesion"), std::string::npos) << no_snap.how;
 }
 
+namespace
+{
+  /// The limits of two paths with their thresholds and largest fraction, as find_adhesion_limits sets them.
+  AdhesionLimits limits_of(AdhesionPath down, AdhesionPath up, double target)
+  {
+    AdhesionLimits limits;
+    limits.lowering     = std::move(down);
+    limits.raising      = std::move(up);
+    limits.hold         = hold_threshold(limits.lowering, target);
+    limits.snap         = snap_threshold(limits.raising, target);
+    limits.equal_energy = equal_energy_threshold(limits.lowering, limits.raising, target, 1e-3);
+    limits.largest      = largest_fraction({&limits.lowering, &limits.raising});
+    explain_unreached_target(limits, target);
+    return limits;
+  }
+} // namespace
+
+// A target above every state's fraction (a pillar array's 99 %, here 1.5 on paths that reach 1.0): each
+// threshold names the largest fraction instead of advice to widen the range.
+TEST(ThresholdFunctions, UnreachableTargetGivesTheLargestFraction)
+{
+  const AdhesionLimits limits = limits_of(lowering(0.1), raising(0.5), 1.5);
+  for (const AdhesionThreshold *t : {&limits.hold, &limits.snap, &limits.equal_energy})
+    {
+      EXPECT_FALSE(t->found);
+      EXPECT_NE(t->how.find("the largest is 100 %"), std::string::npos) << t->how;
+      EXPECT_NE(t->how.find("transitions"), std::string::npos) << t->how;
+      EXPECT_EQ(t->how.find("work of adhesion"), std::string::npos) << t->how; // no range advice
+    }
+}
+
+// The lowering path found no stable start: the raising path alone cannot tell whether the target is out
+// of reach, so Γ_snap must not send the user to raise the Γ range (raising(5.0) never conforms).
+TEST(ThresholdFunctions, FailedPathMakesReachabilityUnknownNotARangeProblem)
+{
+  AdhesionPath failed;
+  failed.lowering = true;
+  failed.message  = "no stable start: refine the mesh";
+  const AdhesionLimits limits = limits_of(failed, raising(5.0), 0.99);
+  for (const AdhesionThreshold *t : {&limits.hold, &limits.snap, &limits.equal_energy})
+    {
+      EXPECT_FALSE(t->found);
+      EXPECT_NE(t->how.find("the largest is 20 %"), std::string::npos) << t->how; // f0
+      EXPECT_NE(t->how.find("lowering path has no certified state"), std::string::npos) << t->how;
+      EXPECT_NE(t->how.find("unknown"), std::string::npos) << t->how;
+      EXPECT_EQ(t->how.find("Highest work of adhesion"), std::string::npos) << t->how;
+    }
+}
+
+TEST(ThresholdFunctions, ReachedTargetKeepsTheRangeAdvice)
+{
+  const AdhesionLimits limits = limits_of(lowering(0.001), raising(0.5), 0.99); // hold below the range
+  EXPECT_FALSE(limits.hold.found);
+  EXPECT_NE(limits.hold.how.find("Lowest work of adhesion"), std::string::npos) << limits.hold.how;
+}
+
 TEST(ThresholdFunctions, StopsWidenTheRangeAndAreSorted)
 {
   AdhesionPathSettings s;

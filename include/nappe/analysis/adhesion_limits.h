@@ -71,6 +71,15 @@ namespace nappe
   AdhesionLimits find_adhesion_limits(const SheetProblem &problem, const AdhesionPathSettings &settings,
                                       MPI_Comm comm, std::ostream *log = nullptr);
 
+  /**
+   * Where no certified state of either path reaches @p target (limits.largest, set), replaces the
+   * "not found" reason of each unfound threshold by one that says so and gives the largest fraction
+   * reached; if a path has no state or stopped early, it says that reachability is unknown (the
+   * path's own message says why it stopped), instead of advice to widen the Γ range. Leaves the limits alone when the
+   * target is reached or neither path has a state.
+   */
+  void explain_unreached_target(AdhesionLimits &limits, double target);
+
   /// The settings with @p stops added and the Γ range widened to contain them (stops sorted).
   AdhesionPathSettings with_stops(AdhesionPathSettings settings, std::vector<double> stops);
 
