@@ -21,6 +21,9 @@ namespace nappe
     /// Below this |μ| the bound is absolute (1e-9 with eigen_tolerance): a zero eigenvalue (a symmetry of the cell)
     /// has no relative accuracy to reach (common practice, no source) [-].
     const double zero_floor = 1e-6;
+    /// A Rayleigh quotient above −this is zero to round-off (a symmetry's mode), not a negative eigenvalue: the
+    /// bound of a zero eigenvalue above (1e-9) [-].
+    const double negative_floor = eigen_tolerance * zero_floor;
 
     double s_product(const Vector &a, const Vector &b, const Vector &weights)
     {
@@ -96,7 +99,7 @@ namespace nappe
     const LowestEigenpair e = lobpcg(H, weights, last_vector_, sign_tolerance, true);
     last_vector_            = e.vector;
     if (e.available)
-      return e.value < 0.0 ? 1 : 0;
+      return e.value < -negative_floor ? 1 : 0;
     // A shifted H not shown positive definite counts as not positive definite: the minimiser shifts
     // further, which costs a more damped step rather than a factorisation.
     if (preconditioner_->diagonal_shift() > 0.0)
@@ -139,7 +142,7 @@ namespace nappe
         r.add(-e.value, Sx);
         e.error = std::sqrt(std::max(0.0, s_product(r, r, inverse_weights)));
         const double resolved = tolerance * std::max(std::abs(e.value), sign_only ? 0.0 : zero_floor);
-        if ((sign_only && e.value < 0.0) || e.error <= resolved)
+        if ((sign_only && e.value < -negative_floor) || e.error <= resolved)
           return e;
         preconditioner_->precondition(r, w);
         constraints.set_zero(w);

@@ -25,6 +25,58 @@ namespace nappe
     {
       return std::max(std::sqrt(std::max(lower, 0.0) * upper), lower + 0.05 * (upper - lower));
     }
+
+    /// The solution (a, b) of a trust-region problem in two dimensions and its multiplier λ.
+    struct ReducedStep
+    {
+      double a = 0.0, b = 0.0, multiplier = 0.0;
+    };
+
+    /// min g·c + ½cᵀHc subject to |c| ≤ Δ for H = [[h11, h12], [h12, h22]], exactly: in H's eigenbasis
+    /// c(λ) = −(H + λI)⁻¹g, λ ≥ max(0, −μ_min), the root of |c(λ)| = Δ by bisection (|c| falls
+    /// monotonically in λ), or, where g has no component along the lowest eigenvector (the hard case),
+    /// c(−μ_min) plus the multiple of that eigenvector that reaches the boundary (Moré & Sorensen 1983).
+    ReducedStep reduced_trust_region(double g1, double g2, double h11, double h12, double h22, double radius)
+    {
+      const double mean = 0.5 * (h11 + h22), half = std::hypot(0.5 * (h11 - h22), h12);
+      const double mu_lo = mean - half, mu_hi = mean + half;
+      // The eigenvector of μ_lo from the better conditioned of the two rows of H − μ_lo I.
+      double qa1 = h12, qa2 = mu_lo - h11;
+      if (std::hypot(mu_lo - h22, h12) > std::hypot(qa1, qa2))
+        qa1 = mu_lo - h22, qa2 = h12;
+      const double nq = std::hypot(qa1, qa2);
+      if (nq > 0.0)
+        qa1 /= nq, qa2 /= nq;
+      else
+        qa1 = 1.0, qa2 = 0.0; // H = μI
+      const double qb1 = -qa2, qb2 = qa1;
+      const double ga = qa1 * g1 + qa2 * g2, gb = qb1 * g1 + qb2 * g2;
+      const auto   length = [&](double lambda) {
+        return std::hypot(ga / (mu_lo + lambda), gb / (mu_hi + lambda));
+      };
+      const auto step = [&](double ca, double cb, double lambda) {
+        return ReducedStep{qa1 * ca + qb1 * cb, qa2 * ca + qb2 * cb, lambda};
+      };
+      if (mu_lo > 0.0 && length(0.0) <= radius)
+        return step(-ga / mu_lo, -gb / mu_hi, 0.0);
+      const double floor = std::max(0.0, -mu_lo);
+      const double cb_floor = mu_hi + floor > 0.0 ? -gb / (mu_hi + floor) : 0.0;
+      if (std::abs(ga) <= 1e-14 * std::hypot(g1, g2) + 1e-300 && std::abs(cb_floor) <= radius)
+        {
+          const double ca = std::sqrt(radius * radius - cb_floor * cb_floor);
+          return step(ga > 0.0 ? -ca : ca, cb_floor, floor);
+        }
+      double lo = floor, hi = floor + std::hypot(g1, g2) / radius + std::abs(mu_lo) + std::abs(mu_hi);
+      for (unsigned int k = 0; k < 200 && hi - lo > 1e-15 * hi; ++k)
+        {
+          const double mid = 0.5 * (lo + hi);
+          if (length(mid) > radius)
+            lo = mid;
+          else
+            hi = mid;
+        }
+      return step(-ga / (mu_lo + hi), -gb / (mu_hi + hi), hi);
+    }
   } // namespace
 
   MoreSorensenSubproblem::MoreSorensenSubproblem(HessianSolvers solvers, const Vector &seed)
@@ -107,6 +159,7 @@ namespace nappe
     shift_    = 0.0;
     lower_    = 0.0;
     gershgorin_ = -1.0;
+    negative_direction_.reset();
     Vector scaled = gradient;
     for (const auto i : scaled.locally_owned_elements())
       scaled(i) /= weights(i);
@@ -141,6 +194,22 @@ namespace nappe
     H_->vmult(Hz, z); // (H + shift·S) z
     const double zSz = std::pow(scaled_norm(z), 2);
     return zSz > 0.0 ? (z * Hz) / zSz - shift_ : 0.0;
+  }
+
+  // The eigenpair that inverse iteration with the factorisation of H finds is the one nearest zero, a
+  // positive one where H has small positive eigenvalues too; the last lowest eigenvector, that of the
+  // previous point (found with a shift near −μ₁), then often still has negative curvature here.
+  LowestEigenpair MoreSorensenSubproblem::negative_curvature_direction()
+  {
+    LowestEigenpair last;
+    last.value              = curvature_along(eigenvector_);
+    last.vector             = eigenvector_;
+    last.available          = true;
+    const LowestEigenpair z = lowest_shifted_eigenpair();
+    if (z.available && z.value < 0.0)
+      return z;
+    eigenvector_ = last.vector; // the better start for the inverse iterations of the shifted H
+    return last;
   }
 
   // H + λS is indefinite: a direction of negative curvature z, zᵀ(H + λS)z < 0 with ‖z‖_S = 1, raises
@@ -178,15 +247,89 @@ namespace nappe
     return model_decrease(trial) > model_decrease(best) ? trial : best;
   }
 
-  // Powell's dogleg (Nocedal & Wright 2006, §4.1): along the scaled steepest descent d = −S⁻¹g to the
-  // Cauchy point p_U = (gᵀd/dᵀHd)·d, then towards the Newton step p_B, cut where ‖p‖_S = Δ. H is
-  // positive definite and unshifted; it costs one product with H and no factorisation.
-  Vector MoreSorensenSubproblem::dogleg(double radius) const
+  // From p = −(H + λS)⁻¹g, H + λS positive definite: if ‖p‖_S ≥ Δ, the dogleg of the model with H + λS,
+  // which lies on the boundary; else p stretched to the boundary if the model of H keeps falling along it.
+  // An empty vector where it does not (the minimum along p is inside: the hard case is near).
+  Vector MoreSorensenSubproblem::to_boundary_along(const Vector &p, double radius) const
+  {
+    const double np = scaled_norm(p);
+    if (np >= radius)
+      return dogleg(radius, p);
+    Vector Hp = p, Sp = p;
+    H_->vmult(Hp, p);
+    Sp.scale(*weights_);
+    const double pHp = p * Hp - shift_ * (p * Sp), gp = *gradient_ * p, tau = radius / std::max(np, 1e-300);
+    if (!(gp < 0.0) || (pHp > 0.0 && -gp / pHp < tau))
+      return Vector();
+    Vector q = p;
+    q *= tau;
+    return q;
+  }
+
+  Vector MoreSorensenSubproblem::scaled_descent() const
   {
     Vector d = *gradient_;
     for (const auto i : d.locally_owned_elements())
       d(i) /= -(*weights_)(i);
     d.compress(dealii::VectorOperation::insert);
+    return d;
+  }
+
+  // The minimum of the model in the plane spanned by the S-orthonormal u₁ (the scaled steepest descent
+  // direction) and u₂ (the negative curvature direction z made S-orthogonal to it), within the region:
+  // the two-dimensional subspace minimisation (Nocedal & Wright 2006, §4.1; with a direction of
+  // negative curvature in the plane: G. A. Shultz, R. B. Schnabel & R. H. Byrd, SIAM J. Numer. Anal. 22,
+  // 47–67, 1985, from memory), solved exactly in the plane. The plane holds the Cauchy step and the
+  // step along z, so the step decreases the model at least as much as either, which is what the
+  // convergence to points with H positive semidefinite needs; it costs two products with H and no
+  // factorisation.
+  Vector MoreSorensenSubproblem::two_dimensional(double radius, const Vector &z, double &multiplier) const
+  {
+    Vector u1 = scaled_descent(), u2 = z;
+    double n1 = scaled_norm(u1);
+    if (!(n1 > 0.0)) // at a stationary point: along z alone
+      {
+        u1 = z;
+        n1 = scaled_norm(z);
+        u2 = 0.0;
+      }
+    u1 /= n1;
+    Vector Su1 = u1;
+    Su1.scale(*weights_);
+    u2.add(-(u2 * Su1), u1);
+    const double n2    = scaled_norm(u2);
+    const bool   plane = n2 > 1e-8;
+    if (plane)
+      u2 /= n2;
+    // H u = (H + shift·S) u − shift·S u, with S u orthonormal: u_iᵀHu_j = u_iᵀ(H + shift·S)u_j − shift·δ_ij.
+    Vector Hu1 = u1, Hu2 = u2;
+    H_->vmult(Hu1, u1);
+    const double g1 = *gradient_ * u1, h11 = u1 * Hu1 - shift_;
+    double       g2 = 0.0, h12 = 0.0, h22 = 0.0;
+    if (plane)
+      {
+        H_->vmult(Hu2, u2);
+        g2 = *gradient_ * u2, h12 = u1 * Hu2, h22 = u2 * Hu2 - shift_;
+      }
+    if (!plane) // one direction: a second one that the solution leaves alone
+      h22 = std::abs(h11) + 1.0;
+    const ReducedStep c = reduced_trust_region(g1, g2, h11, h12, h22, radius);
+    const double      a = c.a, b = plane ? c.b : 0.0;
+    multiplier          = c.multiplier;
+    Vector p = u1;
+    p *= a;
+    if (plane)
+      p.add(b, u2);
+    return p;
+  }
+
+  // Powell's dogleg (Nocedal & Wright 2006, §4.1): along the scaled steepest descent d = −S⁻¹g to the
+  // Cauchy point p_U = (gᵀd/dᵀHd)·d, then towards @p full_step p_B, the minimiser of the model with the
+  // matrix factorised now (H, or a positive definite H + λS), cut where ‖p‖_S = Δ. It costs one product
+  // with that matrix and no factorisation.
+  Vector MoreSorensenSubproblem::dogleg(double radius, const Vector &full_step) const
+  {
+    Vector d = scaled_descent();
     Vector Hd = d;
     H_->vmult(Hd, d);
     const double gd = -((*gradient_) * d), dHd = d * Hd, nd = scaled_norm(d);
@@ -196,7 +339,7 @@ namespace nappe
         return d;
       }
     d *= gd / dHd; // p_U, inside the region
-    Vector between = newton_step_;
+    Vector between = full_step;
     between -= d; // p_B − p_U
     Vector Sd = d;
     Sd.scale(*weights_);
@@ -218,7 +361,10 @@ namespace nappe
       out.predicted_decrease = model_decrease(p);
       out.factorizations     = factorizations_ - start;
       if (lambda > 0)
-        last_multiplier_ = lambda;
+        {
+          last_multiplier_ = lambda;
+          last_radius_     = radius;
+        }
       return out;
     };
     if (inertia_ == 0 && newton_length_ <= (1 + boundary_accuracy) * radius)
@@ -226,8 +372,19 @@ namespace nappe
     // H unshifted (or shifted by internal::null_space_shift·S if it is singular) holds the Newton step's matrix.
     const bool at_newton_shift = inertia_ == 0 && shift_ <= internal::null_space_shift;
     if (at_newton_shift)
-      return finish(dogleg(radius), 0.0);
+      return finish(dogleg(radius, newton_step_), 0.0);
 
+    // H itself indefinite with a known direction of negative curvature: the plane of it and the
+    // steepest descent, without (further) factorisations of H + λS.
+    if (inertia_ != 0 && !negative_direction_ && prepared_ && shift_ == 0.0)
+      negative_direction_ = negative_curvature_direction();
+    const auto along_negative_curvature = [&]() {
+      double       lambda = 0.0;
+      const Vector p      = two_dimensional(radius, negative_direction_->vector, lambda);
+      return finish(p, lambda);
+    };
+    if (inertia_ != 0 && negative_direction_ && negative_direction_->available && negative_direction_->value < 0.0)
+      return along_negative_curvature();
     // Gershgorin's bound, needed only here (not by the Newton step nor the dogleg).
     if (gershgorin_ < 0.0)
       gershgorin_ = internal::gershgorin_shift(*H_, *weights_, shift_);
@@ -240,10 +397,9 @@ namespace nappe
     double best_lambda = -1.0;
     if (!have_p)
       {
-        // The factorisation of the indefinite H itself may already show a direction of negative curvature.
-        if (inertia_ != 0 && prepared_ && shift_ == 0.0)
-          past_indefinite(0.0, lower, upper);
-        lambda = std::min(std::max(last_multiplier_, 1.1 * lower), upper);
+        // λ ≈ ‖g‖_S/Δ where the shift dominates H: the last multiplier scaled to the new radius.
+        const double warm = last_radius_ > 0.0 ? last_multiplier_ * last_radius_ / radius : 0.0;
+        lambda            = std::min(std::max(warm, 1.1 * lower), upper);
         if (lambda <= lower) // H + λS is not positive definite for any λ ≤ λ_L
           lambda = safeguarded(lower, upper);
       }
@@ -255,10 +411,26 @@ namespace nappe
             if (!factorize_at(lambda, count))
               {
                 lambda = past_indefinite(lambda, lower, upper);
+                // The inverse iteration with H + λS, λ closer to −μ₁, may have found H's negative curvature.
+                if (inertia_ != 0 && prepared_)
+                  if (const double mu = curvature_along(eigenvector_); mu < 0.0)
+                    {
+                      LowestEigenpair z;
+                      z.available = true;
+                      z.value     = mu;
+                      z.vector    = eigenvector_;
+                      negative_direction_ = z;
+                      return along_negative_curvature();
+                    }
                 continue;
               }
             solve_shifted(*gradient_, p);
             p *= -1.0;
+            // H indefinite: the first positive definite H + λS whose step p(λ) leads to the boundary is
+            // enough (see the class comment).
+            if (inertia_ != 0)
+              if (const Vector q = to_boundary_along(p, radius); q.size() > 0)
+                return finish(q, lambda);
           }
         have_p          = false;
         const double np = scaled_norm(p);
@@ -315,10 +487,7 @@ namespace nappe
           best_p *= radius / np;
         return finish(best_p, best_lambda);
       }
-    Vector d = *gradient_;
-    for (const auto i : d.locally_owned_elements())
-      d(i) /= -(*weights_)(i);
-    d.compress(dealii::VectorOperation::insert);
+    Vector d = scaled_descent();
     d *= radius / std::max(gradient_length_, 1e-300);
     return finish(d, upper);
   }

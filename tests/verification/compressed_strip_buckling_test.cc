@@ -126,8 +126,9 @@ TEST(CompressedPeriodicStrip, TrustRegionLeavesTheFlatStartForTheExactBuckle)
 }
 
 // The flat start is a saddle (negative pivots): a caller that only wants stable iterates is asked
-// before the trust-region step there, whose multiplier search costs further factorisations; stopping
-// leaves the state untouched and costs fewer factorisations than letting one step be taken.
+// before the trust-region step there, which costs further factorisations where the certificate does not
+// show a direction of negative curvature (trust_region_step_test checks the step that needs none);
+// stopping leaves the state untouched.
 TEST(CompressedPeriodicStrip, TrustRegionAsksTheCallerBeforeAStepAtTheIndefiniteFlatStart)
 {
   SheetSystem       system(compressed_strip(), periodic_strip(), MPI_COMM_WORLD);
@@ -157,5 +158,4 @@ TEST(CompressedPeriodicStrip, TrustRegionAsksTheCallerBeforeAStepAtTheIndefinite
   EXPECT_TRUE(stopped_after.stopped);
   EXPECT_EQ(asked, 2u); // before the step and after it
   EXPECT_GT(after_step.linfty_norm(), 0.0);
-  EXPECT_LT(stopped_before.factorizations, stopped_after.factorizations);
 }

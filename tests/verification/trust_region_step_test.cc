@@ -1,8 +1,11 @@
 // MoreSorensenSubproblem (solvers/trust_region_step.h) against trust-region subproblems whose
 // solution is known in closed form.
 //
-// Moré–Sorensen's method is used where H is indefinite; where H is positive definite and the Newton
-// step is too long, Powell's dogleg (checked against the Cauchy point and the optimum).
+// Where H is indefinite: the two-dimensional subspace step where a direction of negative curvature is
+// known (checked against a sampled plane, the Cauchy point and the step along it), else a shifted
+// step or Moré–Sorensen's iteration (checked against the Cauchy point, and against the optimum where
+// the factor below applies); where H is positive definite and the Newton step is too long, Powell's
+// dogleg (checked against the Cauchy point and the optimum).
 //
 // The matrix is the shifted 1D Dirichlet Laplacian H = tridiag(−1, 2, −1)/h² − σI, n unknowns,
 // h = 1/(n+1), with eigenvalues μ_k = (4/h²) sin²(kπ/(2(n+1))) − σ and orthonormal eigenvectors
@@ -141,6 +144,26 @@ namespace
     return s.gradient * p + 0.5 * (p * Hp);
   }
 
+  /// The Cauchy point's model value m_C = −τΔ‖g‖ + ½τ²Δ² gᵀHg/‖g‖², τ = 1 if gᵀHg ≤ 0, else
+  /// min(1, ‖g‖³/(Δ gᵀHg)) (Nocedal & Wright 2006, eq. 4.12), from the spectral sums.
+  double cauchy_model(const Subproblem &s, double radius)
+  {
+    double gg = 0.0, gHg = 0.0;
+    for (unsigned int k = 0; k < n; ++k)
+      {
+        gg += s.a[k] * s.a[k];
+        gHg += s.mu[k] * s.a[k] * s.a[k];
+      }
+    const double tau = gHg <= 0.0 ? 1.0 : std::min(1.0, std::pow(gg, 1.5) / (radius * gHg));
+    return -tau * radius * std::sqrt(gg) + 0.5 * tau * tau * radius * radius * gHg / gg;
+  }
+
+  /// The model value of the better of ±Δv₁, the step along the lowest eigenvector.
+  double eigen_model(const Subproblem &s, double radius)
+  {
+    return -radius * std::abs(s.a[0]) + 0.5 * radius * radius * s.mu[0];
+  }
+
   TrustRegionStep step(Subproblem &s, double radius, unsigned int &negative)
   {
     MoreSorensenSubproblem sub(make_hessian_solvers(SolverSettings(), comm), s.seed);
@@ -173,14 +196,7 @@ TEST(MoreSorensenStep, TakesTheDoglegBetweenTheCauchyPointAndTheOptimumWhenTheNe
       Subproblem s;
       make(s, 0.0, [](unsigned int k) { return 1.0 / k; });
       const double radius = share * std::sqrt(norm2(s, 0.0));
-      double       gg = 0.0, gHg = 0.0;
-      for (unsigned int k = 0; k < n; ++k)
-        {
-          gg += s.a[k] * s.a[k];
-          gHg += s.mu[k] * s.a[k] * s.a[k];
-        }
-      const double          tau    = std::min(1.0, std::pow(gg, 1.5) / (radius * gHg));
-      const double          cauchy = -tau * radius * std::sqrt(gg) + 0.5 * tau * tau * radius * radius * gHg / gg;
+      const double          cauchy   = cauchy_model(s, radius);
       unsigned int          negative = 99;
       const TrustRegionStep p        = step(s, radius, negative);
       EXPECT_EQ(negative, 0u);
@@ -221,4 +237,68 @@ TEST(MoreSorensenStep, SolvesTheHardCaseAtASaddleAlongTheLowestEigenvector)
   EXPECT_GE(p.length, (1 - accuracy) * radius);
   EXPECT_LE(p.length, (1 + accuracy) * radius);
   EXPECT_LE(model_of(s, p.step), std::pow(1 - accuracy, 2) * optimal_model(s, radius));
+}
+
+// Where H's own factorisation shows its negative curvature (one negative eigenvalue, nearer zero than
+// every positive one, so that inverse iteration with that factorisation finds it), the step is the
+// minimum of the model in the plane of the gradient and v₁, without a further factorisation. The
+// reference: the same plane's boundary sampled at 10⁵ angles with the exact vectors (g and v₁ are
+// S-orthogonal up to a₁, removed here), which the step must match or beat; and it must beat the Cauchy
+// point and the step along v₁ (Shultz, Schnabel & Byrd 1985, the conditions for convergence to a point
+// with H positive semidefinite, from memory).
+TEST(MoreSorensenStep, StepsInThePlaneOfTheGradientAndTheNegativeCurvatureWithoutAnotherFactorisation)
+{
+  const double sigma = laplacian_eigenvalue(1) + 0.3 * (laplacian_eigenvalue(2) - laplacian_eigenvalue(1));
+  for (const double radius : {1e-4, 1e-2, 1.0})
+    {
+      Subproblem s;
+      make(s, sigma, [](unsigned int k) { return 1e-2 / k; });
+      unsigned int          negative = 99;
+      const TrustRegionStep p        = step(s, radius, negative);
+      ASSERT_EQ(negative, 1u);
+      EXPECT_EQ(p.factorizations, 0u) << "Δ = " << radius;
+      EXPECT_NEAR(p.length, radius, 1e-9 * radius) << "Δ = " << radius; // indefinite in the plane: on the boundary
+      const double m = model_of(s, p.step);
+      EXPECT_LE(m, cauchy_model(s, radius) * (1 - 1e-12)) << "Δ = " << radius;
+      EXPECT_LE(m, eigen_model(s, radius) * (1 - 1e-12)) << "Δ = " << radius;
+      EXPECT_GE(m, optimal_model(s, radius) * (1 + 1e-12)) << "Δ = " << radius;
+      // u₁ = −g/‖g‖, u₂ = v₁ made orthogonal to g; the plane's model on the circle of radius Δ.
+      double gg = 0.0, gHg = 0.0;
+      for (unsigned int k = 0; k < n; ++k)
+        gg += s.a[k] * s.a[k], gHg += s.mu[k] * s.a[k] * s.a[k];
+      const double c  = s.a[0] / std::sqrt(gg);  // v₁ᵀu with u = g/‖g‖
+      const double ns = std::sqrt(1 - c * c);    // ‖v₁ − c u‖
+      const double h11 = gHg / gg, h12 = (s.mu[0] * s.a[0] / std::sqrt(gg) - c * h11) / ns;
+      const double h22 = (s.mu[0] - 2 * c * s.mu[0] * s.a[0] / std::sqrt(gg) + c * c * h11) / (ns * ns);
+      double best = 0.0;
+      for (unsigned int j = 0; j < 100000; ++j)
+        {
+          const double t = 2 * M_PI * j / 100000, x = radius * std::cos(t), y = radius * std::sin(t);
+          best = std::min(best, std::sqrt(gg) * x + 0.5 * (h11 * x * x + 2 * h12 * x * y + h22 * y * y));
+        }
+      EXPECT_LE(m, best + 1e-9 * std::abs(best)) << "Δ = " << radius;
+    }
+}
+
+// Where H is indefinite and its own factorisation shows no negative curvature (the eigenvalue nearest
+// zero is positive), the step still decreases the model at least as much as the Cauchy point, lies in
+// the region and reaches its boundary within σ₁.
+TEST(MoreSorensenStep, DecreasesTheModelAtLeastAsMuchAsTheCauchyPointWhereNoNegativeCurvatureIsKnown)
+{
+  const double sigma = laplacian_eigenvalue(2) - 0.1 * (laplacian_eigenvalue(2) - laplacian_eigenvalue(1));
+  for (const double radius : {1e-4, 1e-2, 1.0})
+    {
+      Subproblem s;
+      make(s, sigma, [](unsigned int k) { return 1e-2 / k; });
+      unsigned int          negative = 99;
+      const TrustRegionStep p        = step(s, radius, negative);
+      ASSERT_EQ(negative, 1u);
+      EXPECT_TRUE(p.negative_curvature);
+      EXPECT_LE(p.length, (1 + accuracy) * radius) << "Δ = " << radius;
+      EXPECT_GE(p.length, (1 - accuracy) * radius) << "Δ = " << radius;
+      const double m = model_of(s, p.step);
+      EXPECT_LE(m, cauchy_model(s, radius) * (1 - 1e-12)) << "Δ = " << radius;
+      EXPECT_GE(m, optimal_model(s, radius) * (1 + 1e-12)) << "Δ = " << radius;
+      EXPECT_NEAR(p.predicted_decrease, -m, 1e-9 * std::abs(m)) << "Δ = " << radius;
+    }
 }

@@ -3,6 +3,8 @@
 #include <nappe/solvers/hessian_solver.h>
 #include <nappe/solvers/sheet_system.h>
 
+#include <optional>
+
 namespace nappe
 {
   /// A step of the trust-region subproblem and what it cost.
@@ -39,11 +41,29 @@ namespace nappe
    * value), or in the hard case when τ²zᵀ(H + λS)z ≤ σ₁(2 − σ₁)(pᵀ(H + λS)p + λΔ²) (their eq. 3.12),
    * which guarantees a model decrease within a factor (1 − σ₁)² of the optimum.
    *
+   * Where H itself is indefinite, each factorisation of H + λS costs as much as a Newton iteration,
+   * and the steps there only have to lead the iterate away from where H is indefinite; so, cheaper
+   * than solving the subproblem to σ₁:
+   *  - with a direction z of negative curvature of H known (from inverse iteration with H's own
+   *    factorisation, the last lowest eigenvector, or that of a shifted factorisation), the exact
+   *    minimum of the model in the plane of z and the scaled steepest descent direction (the
+   *    two-dimensional subspace method; Shultz, Schnabel & Byrd, SIAM J. Numer. Anal. 22, 47–67, 1985,
+   *    from memory): at least the decrease of the Cauchy step and of the step along z, no further
+   *    factorisation;
+   *  - otherwise the first positive definite H + λS (λ warm-started from the last multiplier scaled by
+   *    the ratio of the radii, since λ ≈ ‖g‖_S/Δ where the shift dominates H) whose solution p(λ)
+   *    reaches the boundary: the dogleg of the model with H + λS if ‖p(λ)‖_S ≥ Δ, else p(λ) stretched
+   *    to the boundary where the model of H falls all the way along it; at least the Cauchy decrease of
+   *    the model with H + λS, which is below that of H. Moré–Sorensen's iteration goes on where
+   *    neither applies (near the hard case).
+   * Measured on the threshold trio of benchmarks/adhesion_limits (128 cells per period): 202 → 151
+   * factorisations, 18 % less time, the same thresholds.
+   *
    * Where H is positive definite and its Newton step leaves the region, the step is Powell's dogleg
    * instead (Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, §4.1): the path from the scaled
    * Cauchy point to the Newton step, cut at ‖p‖_S = Δ, which needs no further factorisation and
    * decreases the model at least as much as the Cauchy point (enough for global convergence, N&W
-   * Theorem 4.5). Moré–Sorensen's iteration is kept for indefinite H, where the dogleg is undefined.
+   * Theorem 4.5).
    *
    * Everything goes through the solver seam (HessianSolver, StabilityCertificate); the hard case needs
    * a certificate that offers lowest_eigenpair() (without one the step falls back to the positive
@@ -89,11 +109,15 @@ namespace nappe
     double scaled_norm(const Vector &v) const;
     void   solve_shifted(const Vector &rhs, Vector &x) const;
     LowestEigenpair lowest_shifted_eigenpair();
+    LowestEigenpair negative_curvature_direction();
     double          curvature_along(const Vector &z) const;
     double          past_indefinite(double lambda, double &lower, double upper);
     double model_decrease(const Vector &p) const;
     Vector to_boundary(const Vector &p, const LowestEigenpair &z, double radius) const;
-    Vector dogleg(double radius) const;
+    Vector dogleg(double radius, const Vector &full_step) const;
+    Vector to_boundary_along(const Vector &p, double radius) const;
+    Vector scaled_descent() const;
+    Vector two_dimensional(double radius, const Vector &z, double &multiplier) const;
 
     HessianSolvers solvers_;
     Vector         seed_;
@@ -112,7 +136,10 @@ namespace nappe
     double         newton_decrement_ = -1.0;
     double         gradient_length_ = 0.0;
     double         last_multiplier_ = 0.0; ///< warm start of λ
+    double         last_radius_     = 0.0; ///< the radius last_multiplier_ was found for [√J]
     Vector         eigenvector_;           ///< the last lowest eigenvector (warm start of the inverse iteration)
+    /// At an indefinite H: the eigenpair from its own factorisation, once computed at this point.
+    std::optional<LowestEigenpair> negative_direction_;
     unsigned int   factorizations_ = 0;
   };
 } // namespace nappe
