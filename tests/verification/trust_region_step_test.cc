@@ -170,6 +170,16 @@ namespace
     negative = sub.set_point(s.H, s.gradient, s.weights);
     return sub.solve(radius);
   }
+
+  /// The step for g = Σ 10⁻²/k v_k and a shift σ that leaves H one negative eigenvalue.
+  TrustRegionStep step_with_one_negative_eigenvalue(Subproblem &s, double sigma, double radius)
+  {
+    make(s, sigma, [](unsigned int k) { return 1e-2 / k; });
+    unsigned int          negative = 99;
+    const TrustRegionStep p        = step(s, radius, negative);
+    EXPECT_EQ(negative, 1u);
+    return p;
+  }
 } // namespace
 
 TEST(MoreSorensenStep, IsTheNewtonStepWhenItFitsAndHIsPositiveDefinite)
@@ -251,11 +261,8 @@ TEST(MoreSorensenStep, StepsInThePlaneOfTheGradientAndTheNegativeCurvatureWithou
   const double sigma = laplacian_eigenvalue(1) + 0.3 * (laplacian_eigenvalue(2) - laplacian_eigenvalue(1));
   for (const double radius : {1e-4, 1e-2, 1.0})
     {
-      Subproblem s;
-      make(s, sigma, [](unsigned int k) { return 1e-2 / k; });
-      unsigned int          negative = 99;
-      const TrustRegionStep p        = step(s, radius, negative);
-      ASSERT_EQ(negative, 1u);
+      Subproblem            s;
+      const TrustRegionStep p = step_with_one_negative_eigenvalue(s, sigma, radius);
       EXPECT_EQ(p.factorizations, 0u) << "Δ = " << radius;
       EXPECT_NEAR(p.length, radius, 1e-9 * radius) << "Δ = " << radius; // indefinite in the plane: on the boundary
       const double m = model_of(s, p.step);
@@ -288,11 +295,8 @@ TEST(MoreSorensenStep, DecreasesTheModelAtLeastAsMuchAsTheCauchyPointWhereNoNega
   const double sigma = laplacian_eigenvalue(2) - 0.1 * (laplacian_eigenvalue(2) - laplacian_eigenvalue(1));
   for (const double radius : {1e-4, 1e-2, 1.0})
     {
-      Subproblem s;
-      make(s, sigma, [](unsigned int k) { return 1e-2 / k; });
-      unsigned int          negative = 99;
-      const TrustRegionStep p        = step(s, radius, negative);
-      ASSERT_EQ(negative, 1u);
+      Subproblem            s;
+      const TrustRegionStep p = step_with_one_negative_eigenvalue(s, sigma, radius);
       EXPECT_TRUE(p.negative_curvature);
       EXPECT_LE(p.length, (1 + accuracy) * radius) << "Δ = " << radius;
       EXPECT_GE(p.length, (1 - accuracy) * radius) << "Δ = " << radius;
