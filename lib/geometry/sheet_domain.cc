@@ -1,10 +1,10 @@
-#include <deal.II/base/utilities.h>
 #include <deal.II/grid/grid_generator.h>
 #include <deal.II/grid/grid_in.h>
 #include <deal.II/grid/grid_tools.h>
 #include <deal.II/grid/manifold_lib.h>
 #include <deal.II/grid/tria.h>
 
+#include <nappe/base/message_number.h>
 #include <nappe/geometry/gmsh_file_check.h>
 #include <nappe/geometry/sheet_domain.h>
 
@@ -64,7 +64,7 @@ namespace nappe
       const std::string &file = d.mesh_file;
       AssertThrow(!file.empty(), ExcMessage("Domain shape 'mesh file' needs a mesh file name (Domain/Mesh file)."));
       AssertThrow(d.mesh_scale > 0.0, ExcMessage("The mesh scale of '" + file + "' must be positive; got " +
-                                                 dealii::Utilities::to_string(d.mesh_scale) + "."));
+                                                 message_number(d.mesh_scale) + "."));
       // GridIn trusts its input; the check names the line of anything it could misread.
       check_gmsh_file(file);
       std::ifstream in(file);

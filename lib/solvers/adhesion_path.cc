@@ -1,6 +1,6 @@
 #include <deal.II/base/timer.h>
-#include <deal.II/base/utilities.h>
 
+#include <nappe/base/message_number.h>
 #include <nappe/solvers/load_stepping.h>
 #include <nappe/solvers/mesh_adaptation.h>
 #include <nappe/solvers/path_tangent.h>
@@ -319,8 +319,8 @@ namespace nappe
     AssertThrow(s.lowest_work_of_adhesion > 0 && s.highest_work_of_adhesion > s.lowest_work_of_adhesion,
                 dealii::ExcMessage("Adhesion limits/Lowest work of adhesion, Highest work of adhesion: "
                                    "expected 0 < lowest < highest, found " +
-                                   dealii::Utilities::to_string(s.lowest_work_of_adhesion) + " and " +
-                                   dealii::Utilities::to_string(s.highest_work_of_adhesion) + " J/m^2."));
+                                   message_number(s.lowest_work_of_adhesion) + " and " +
+                                   message_number(s.highest_work_of_adhesion) + " J/m^2."));
     AssertThrow(s.target_fraction > 0 && s.target_fraction <= 1,
                 dealii::ExcMessage("Adhesion limits/Target conformed fraction: expected a number in (0, 1]."));
     AssertThrow(s.relative_tolerance > 0 && s.initial_step >= s.relative_tolerance &&

@@ -11,6 +11,7 @@
 #include <deal.II/lac/sparsity_tools.h>
 #include <deal.II/numerics/vector_tools.h>
 
+#include <nappe/base/message_number.h>
 #include <nappe/physics/adhesion_potential.h>
 #include <nappe/physics/fvk_kinematics.h>
 #include <nappe/solvers/sheet_system.h>
@@ -374,8 +375,8 @@ namespace nappe
       {
       }
     const unsigned int owner = Utilities::MPI::min(here ? rank : n_ranks, comm_);
-    AssertThrow(owner < n_ranks, ExcMessage("The point (" + Utilities::to_string(p[0] / 1e-9) + ", " +
-                                            Utilities::to_string(p[1] / 1e-9) + ") nm lies outside the sheet."));
+    AssertThrow(owner < n_ranks, ExcMessage("The point (" + message_number(p[0] / 1e-9) + ", " +
+                                            message_number(p[1] / 1e-9) + ") nm lies outside the sheet."));
     PointEvaluation eval;
     if (owner == rank)
       {
