@@ -43,6 +43,23 @@ namespace nappe
       }
   }
 
+  // x = H⁻¹b with the prepared H; false if an iterative solve fails at the unshifted H (@p shift = 0),
+  // which is then singular to working precision.
+  bool EnergyMinimizer::solved_unless_singular(const Vector &b, Vector &x, double shift) const
+  {
+    try
+      {
+        solvers_.solver->solve(b, x);
+        return true;
+      }
+    catch (const HessianSolveError &)
+      {
+        if (shift > 0.0)
+          throw;
+        return false;
+      }
+  }
+
   // Prepares the Hessian held in the system; if it is indefinite or singular, or @p minimum_shift > 0,
   // adds μ·diag|H| with μ ≥ minimum_shift grown until the certificate finds no negative eigenvalue.
   // Returns the count of the unshifted matrix and, in @p zeros, its null pivots. The search starts a
@@ -194,10 +211,21 @@ namespace nappe
         const double      r = residual_.l2_norm();
         if (tolerance < 0.0)
           tolerance = residual_tolerance(level, force_scale, r);
-        double             shift          = 0.0;
-        unsigned int       factorizations = 0, zeros = 0;
-        const unsigned int negative = factorize_positive_definite(minimum_shift, shift, zeros, factorizations);
+        double       shift          = 0.0;
+        unsigned int factorizations = 0, zeros = 0;
+        unsigned int negative       = factorize_positive_definite(minimum_shift, shift, zeros, factorizations);
         report.factorizations += factorizations;
+        direction = residual_;
+        if (shift >= 0.0 && !solved_unless_singular(residual_, direction, shift))
+          {
+            // An iterative solve failed at an H found positive semi-definite: H is singular to
+            // working precision, as a null pivot says for a factorisation.
+            negative = factorize_positive_definite(internal::null_space_shift, shift, zeros, factorizations);
+            zeros    = std::max(zeros, 1u);
+            report.factorizations += factorizations;
+            if (shift >= 0.0)
+              solvers_.solver->solve(residual_, direction);
+          }
         if (shift < 0.0)
           {
             report.message = "the Hessian stays indefinite under a shift of 1e5·diag|H| (last residual " +
@@ -214,8 +242,6 @@ namespace nappe
         report.zero_pivots     = zeros;
         report.tolerance  = tolerance;
 
-        direction = residual_;
-        solvers_.solver->solve(residual_, direction);
         direction *= -1.0;
         const double slope = residual_ * direction;
         // At the round-off floor of the residual the Newton decrement −R·δ (twice the predicted

@@ -32,6 +32,9 @@ namespace nappe
 
     /// Spectral range of D⁻¹H the Chebyshev smoother damps, [λ_max/range, λ_max] (common practice, no source).
     const double       smoothing_range       = 20.0;
+    /// CG stops as diverged when ‖r‖ exceeds this many times ‖b‖ (an indefinite H or preconditioner,
+    /// or a right-hand side outside the range of a singular H; common practice, no source).
+    const double       divergence_factor     = 1e4;
     const unsigned int eigenvalue_cg_steps   = 20; ///< CG steps estimating λ_max(D⁻¹H)
   } // namespace
 
@@ -273,6 +276,7 @@ namespace nappe
     const double  tolerance = h_->coarse_shift > 0.0 ? h_->settings.shifted_relative_tolerance :
                                                        h_->settings.relative_tolerance;
     SolverControl control(h_->settings.max_iterations, tolerance * b_norm);
+    control.set_failure_criterion(divergence_factor);
     SolverCG<LevelVector> cg(control);
     try
       {
@@ -288,7 +292,7 @@ namespace nappe
                 << "features of the fine mesh; use Solver/Linear solver = direct LDLT, or raise Solver/Multilevel "
                 << "coarsest cells (now " << h_->settings.coarsest_cells << ") or Solver/Multilevel iteration limit "
                 << "(now " << h_->settings.max_iterations << ").";
-        throw std::runtime_error(message.str());
+        throw HessianSolveError(message.str());
       }
     h_->last_iterations = control.last_step();
     copy_owned(x, solution);

@@ -5,6 +5,7 @@
 #include <nappe/solvers/trust_region_step.h>
 
 #include "matrix_diagonal.h"
+#include "reduced_trust_region.h"
 
 #include <algorithm>
 #include <cmath>
@@ -24,58 +25,6 @@ namespace nappe
     double safeguarded(double lower, double upper)
     {
       return std::max(std::sqrt(std::max(lower, 0.0) * upper), lower + 0.05 * (upper - lower));
-    }
-
-    /// The solution (a, b) of a trust-region problem in two dimensions and its multiplier λ.
-    struct ReducedStep
-    {
-      double a = 0.0, b = 0.0, multiplier = 0.0;
-    };
-
-    /// min g·c + ½cᵀHc subject to |c| ≤ Δ for H = [[h11, h12], [h12, h22]], exactly: in H's eigenbasis
-    /// c(λ) = −(H + λI)⁻¹g, λ ≥ max(0, −μ_min), the root of |c(λ)| = Δ by bisection (|c| falls
-    /// monotonically in λ), or, where g has no component along the lowest eigenvector (the hard case),
-    /// c(−μ_min) plus the multiple of that eigenvector that reaches the boundary (Moré & Sorensen 1983).
-    ReducedStep reduced_trust_region(double g1, double g2, double h11, double h12, double h22, double radius)
-    {
-      const double mean = 0.5 * (h11 + h22), half = std::hypot(0.5 * (h11 - h22), h12);
-      const double mu_lo = mean - half, mu_hi = mean + half;
-      // The eigenvector of μ_lo from the better conditioned of the two rows of H − μ_lo I.
-      double qa1 = h12, qa2 = mu_lo - h11;
-      if (std::hypot(mu_lo - h22, h12) > std::hypot(qa1, qa2))
-        qa1 = mu_lo - h22, qa2 = h12;
-      const double nq = std::hypot(qa1, qa2);
-      if (nq > 0.0)
-        qa1 /= nq, qa2 /= nq;
-      else
-        qa1 = 1.0, qa2 = 0.0; // H = μI
-      const double qb1 = -qa2, qb2 = qa1;
-      const double ga = qa1 * g1 + qa2 * g2, gb = qb1 * g1 + qb2 * g2;
-      const auto   length = [&](double lambda) {
-        return std::hypot(ga / (mu_lo + lambda), gb / (mu_hi + lambda));
-      };
-      const auto step = [&](double ca, double cb, double lambda) {
-        return ReducedStep{qa1 * ca + qb1 * cb, qa2 * ca + qb2 * cb, lambda};
-      };
-      if (mu_lo > 0.0 && length(0.0) <= radius)
-        return step(-ga / mu_lo, -gb / mu_hi, 0.0);
-      const double floor = std::max(0.0, -mu_lo);
-      const double cb_floor = mu_hi + floor > 0.0 ? -gb / (mu_hi + floor) : 0.0;
-      if (std::abs(ga) <= 1e-14 * std::hypot(g1, g2) + 1e-300 && std::abs(cb_floor) <= radius)
-        {
-          const double ca = std::sqrt(radius * radius - cb_floor * cb_floor);
-          return step(ga > 0.0 ? -ca : ca, cb_floor, floor);
-        }
-      double lo = floor, hi = floor + std::hypot(g1, g2) / radius + std::abs(mu_lo) + std::abs(mu_hi);
-      for (unsigned int k = 0; k < 200 && hi - lo > 1e-15 * hi; ++k)
-        {
-          const double mid = 0.5 * (lo + hi);
-          if (length(mid) > radius)
-            lo = mid;
-          else
-            hi = mid;
-        }
-      return step(-ga / (mu_lo + hi), -gb / (mu_hi + hi), hi);
     }
   } // namespace
 
@@ -172,17 +121,35 @@ namespace nappe
     zero_eigenvalues_  = count == dealii::numbers::invalid_unsigned_int ? last_null_pivots_ : 0;
     if (zero_eigenvalues_ > 0)
       definite = factorize_at(internal::null_space_shift, count);
-    if (definite)
+    if (definite && !solved_newton_step())
       {
-        solve_shifted(gradient, newton_step_);
-        newton_step_ *= -1.0;
-        newton_length_    = scaled_norm(newton_step_);
-        newton_decrement_ = -(gradient * newton_step_);
+        // An iterative solve failed at an H the certificate finds positive semi-definite: H is
+        // singular to working precision, as a null pivot says for a factorisation.
+        zero_eigenvalues_ = 1;
+        definite          = factorize_at(internal::null_space_shift, count) && solved_newton_step();
       }
-    else
+    if (!definite)
       lower_ = std::max(lower_, -curvature_along(eigenvector_));
     inertia_ = count;
     return count;
+  }
+
+  bool MoreSorensenSubproblem::solved_newton_step()
+  {
+    try
+      {
+        solve_shifted(*gradient_, newton_step_);
+      }
+    catch (const HessianSolveError &)
+      {
+        if (shift_ > 0.0)
+          throw;
+        return false;
+      }
+    newton_step_ *= -1.0;
+    newton_length_    = scaled_norm(newton_step_);
+    newton_decrement_ = -(*gradient_ * newton_step_);
+    return true;
   }
 
   // zᵀHz/zᵀSz for the unshifted H: its negative bounds λ* from below, since λ* ≥ −μ₁ ≥ −zᵀHz/zᵀSz.
@@ -313,7 +280,7 @@ namespace nappe
       }
     if (!plane) // one direction: a second one that the solution leaves alone
       h22 = std::abs(h11) + 1.0;
-    const ReducedStep c = reduced_trust_region(g1, g2, h11, h12, h22, radius);
+    const internal::ReducedStep c = internal::reduced_trust_region(g1, g2, h11, h12, h22, radius);
     const double      a = c.a, b = plane ? c.b : 0.0;
     multiplier          = c.multiplier;
     Vector p = u1;

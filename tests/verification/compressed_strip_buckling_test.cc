@@ -63,15 +63,61 @@ namespace
     LowestEigenpair slide; ///< the lowest eigenpair of the Hessian pencil at the buckle
   };
 
+  /**
+   * The test's linear solver, failing like an iterative solver that does not converge (HessianSolveError)
+   * while the Hessian's diagonal shift μ is below @p failing_below: with 1e-12 at every unshifted H, as
+   * CG with an inexact preconditioner can at a singular H and a right-hand side at round-off.
+   */
+  class FailingBelowShift : public HessianSolver
+  {
+  public:
+    FailingBelowShift(std::shared_ptr<HessianSolver> solver, double failing_below)
+      : solver_(std::move(solver)), failing_below_(failing_below)
+    {}
+    void linearize(const Vector &state, const LoadLevel &level) override
+    {
+      shift_ = 0.0;
+      solver_->linearize(state, level);
+    }
+    void set_diagonal_shift(double mu) override
+    {
+      shift_ = mu;
+      solver_->set_diagonal_shift(mu);
+    }
+    void prepare(const SparseMatrix &H) override { solver_->prepare(H); }
+    void solve(const Vector &rhs, Vector &solution) const override
+    {
+      if (shift_ < failing_below_)
+        throw HessianSolveError("no convergence (made to fail by the test)");
+      solver_->solve(rhs, solution);
+    }
+    std::string name() const override { return "failing " + solver_->name(); }
+
+  private:
+    std::shared_ptr<HessianSolver> solver_;
+    double                         failing_below_;
+    double                         shift_ = 0.0;
+  };
+
+  /// The test's solvers, their linear solve failing below the shift @p failing_below (0: never).
+  HessianSolvers solvers_failing_below(const SheetSystem &system, double failing_below)
+  {
+    HessianSolvers solvers = test_support::test_solvers(system);
+    if (failing_below > 0.0)
+      solvers.solver = std::make_shared<FailingBelowShift>(solvers.solver, failing_below);
+    return solvers;
+  }
+
   /// Minimises from the flat state with the globalisation @p method; fails the test unless certified.
-  Buckle buckle(MinimizerMethod method)
+  /// @p failing_below: see solvers_failing_below().
+  Buckle buckle(MinimizerMethod method, double failing_below = 0.0)
   {
     Buckle out;
     out.system = std::make_unique<SheetSystem>(compressed_strip(), periodic_strip(), MPI_COMM_WORLD);
     MinimizerSettings settings;
     settings.method = method;
     EnergyMinimizer minimizer(*out.system, settings, std::getenv("NAPPE_TEST_LOG") ? &std::cout : nullptr,
-                              test_support::test_solvers(*out.system));
+                              solvers_failing_below(*out.system, failing_below));
     Vector owned = out.system->make_owned_vector();
     out.report   = minimizer.minimize(owned, 1.0, 0.0);
     EXPECT_TRUE(out.report.converged) << out.report.message;
@@ -123,6 +169,33 @@ TEST(CompressedPeriodicStrip, LineSearchLeavesTheFlatStartForTheExactBuckle)
 TEST(CompressedPeriodicStrip, TrustRegionLeavesTheFlatStartForTheExactBuckle)
 {
   expect_exact_buckle(buckle(MinimizerMethod::trust_region));
+}
+
+// An iterative solve that fails at an unshifted Hessian the certificate finds positive semi-definite means a
+// singular H (here: at the buckle, whose sliding mode is a null vector). Both globalisations then shift H
+// by the null-space shift, as for a null pivot, and still reach the exact buckle.
+TEST(CompressedPeriodicStrip, BothMinimisersShiftPastALinearSolveThatFailsAtTheUnshiftedHessian)
+{
+  for (const auto method : {MinimizerMethod::line_search, MinimizerMethod::trust_region})
+    {
+      const auto solved = buckle(method, 1e-12);
+      EXPECT_GE(solved.report.zero_pivots, 1u);
+      expect_exact_buckle(solved);
+    }
+}
+
+// A solve that fails after the shift too is reported to the caller, not taken as a step.
+TEST(CompressedPeriodicStrip, ALinearSolveThatFailsAfterTheShiftStopsTheMinimiser)
+{
+  for (const auto method : {MinimizerMethod::line_search, MinimizerMethod::trust_region})
+    {
+      SheetSystem       system(compressed_strip(), periodic_strip(), MPI_COMM_WORLD);
+      MinimizerSettings settings;
+      settings.method = method;
+      EnergyMinimizer minimizer(system, settings, nullptr, solvers_failing_below(system, 1e300));
+      Vector          owned = system.make_owned_vector();
+      EXPECT_THROW(minimizer.minimize(owned, 1.0, 0.0), HessianSolveError);
+    }
 }
 
 // The flat start is a saddle (negative pivots): a caller that only wants stable iterates is asked

@@ -92,7 +92,6 @@ namespace
     MultilevelSettings settings;
     settings.coarsest_cells     = 20;    // several levels even on the small test meshes
     settings.relative_tolerance = 1e-10; // well below the compared difference
-    settings.smoother_degree    = 6;
     MultilevelHessianSolver multilevel(system, settings);
     multilevel.linearize(ghosted_state, level);
     multilevel.prepare(system.hessian_matrix());

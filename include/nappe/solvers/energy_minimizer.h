@@ -158,6 +158,7 @@ namespace nappe
     unsigned int factorize_positive_definite(double minimum_shift, double &shift, unsigned int &zeros,
                                              unsigned int &factorizations);
     bool         prepare_unless_singular(unsigned int &negative, unsigned int &zeros);
+    bool         solved_unless_singular(const Vector &b, Vector &x, double shift) const;
     bool         line_search(Vector &state, const Vector &direction, double energy, double slope,
                              const LoadLevel &level, double &step);
     bool         escape_saddle(Vector &state, double energy, const LoadLevel &level, double shift);

@@ -3,6 +3,7 @@
 #include <nappe/solvers/sheet_system.h>
 
 #include <memory>
+#include <stdexcept>
 #include <string>
 #include <vector>
 
@@ -38,11 +39,25 @@ namespace nappe
     /// Prepares solves with @p H (assembled, compressed). H must stay alive and unmodified until the next prepare().
     virtual void prepare(const SparseMatrix &H) = 0;
 
-    /// @p solution = H⁻¹ @p rhs with the prepared H (owned vectors with H's row partition).
+    /**
+     * @p solution = H⁻¹ @p rhs with the prepared H (owned vectors with H's row partition). An iterative
+     * solver that does not reach its tolerance throws HessianSolveError.
+     */
     virtual void solve(const Vector &rhs, Vector &solution) const = 0;
 
     /// The name it is chosen by in the case file (Solver/Linear solver).
     virtual std::string name() const = 0;
+  };
+
+  /**
+   * Thrown on every rank by an iterative HessianSolver::solve() that diverged or did not reach its
+   * tolerance: H may be singular there (a sliding or rotation mode at a buckled state, with a
+   * right-hand side at round-off that is not in H's range), so a caller may shift H and retry.
+   */
+  class HessianSolveError : public std::runtime_error
+  {
+  public:
+    using std::runtime_error::runtime_error;
   };
 
   /// The lowest eigenvalue of a Hessian pencil and its vector (StabilityCertificate::lowest_eigenpair).
@@ -104,8 +119,10 @@ namespace nappe
     /// More iterations than this is a failure (reported with the last residual) [-]. A shifted step at
     /// the start of a laid-down solve needs the most (225 on the demo cell at 50k unknowns).
     unsigned int max_iterations = 1000;
-    /// Degree of the Chebyshev smoother (matrix-vector products per smoothing step) [-].
-    unsigned int smoother_degree = 4;
+    /// Degree of the Chebyshev smoother (matrix-vector products per smoothing step) [-]. 6 rather than
+    /// 4: a Newton step costs about the same and CG needs a fifth fewer iterations, growing less with
+    /// refinement (benchmarks/README.md, "one Newton step").
+    unsigned int smoother_degree = 6;
   };
 
   /// Choice of the solver seam's implementations (case file subsection "Solver").

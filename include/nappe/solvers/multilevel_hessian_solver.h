@@ -49,8 +49,8 @@ namespace nappe
      * x = H⁻¹b to MultilevelSettings::relative_tolerance by preconditioned CG; with a shifted H (a
      * globalisation step, whose accuracy does not set the rate of Newton's method near the minimum,
      * Nocedal & Wright, Numerical Optimization, 2nd ed., 2006, §7.1) to MultilevelSettings::
-     * shifted_relative_tolerance. Throws on every rank,
-     * with the last relative residual, if CG does not converge or meets negative curvature.
+     * shifted_relative_tolerance. Throws HessianSolveError on every rank, with the last relative
+     * residual, if CG reaches its iteration limit or diverges (‖r‖ > 10⁴‖b‖).
      */
     void solve(const Vector &rhs, Vector &solution) const override;
 

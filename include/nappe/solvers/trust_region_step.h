@@ -78,7 +78,8 @@ namespace nappe
 
     /**
      * A new point: factorises @p H and returns its number of negative eigenvalues (the certificate).
-     * A singular H (null pivots) is factorised shifted by internal::null_space_shift·S, whose inertia
+     * A singular H (null pivots, or an iterative solve failing where the certificate finds no
+     * negative eigenvalue) is factorised shifted by internal::null_space_shift·S, whose inertia
      * is H's with the zero eigenvalues counted positive; numbers::invalid_unsigned_int if that is
      * singular too. @p H, @p gradient and @p weights (S, positive) must stay alive and unchanged
      * (except through this class) until the next set_point().
@@ -108,6 +109,9 @@ namespace nappe
     void   shift_to(double lambda);
     double scaled_norm(const Vector &v) const;
     void   solve_shifted(const Vector &rhs, Vector &x) const;
+    /// newton_step_ = −(H + shift_·S)⁻¹g, with its length and decrement; false if an iterative solve
+    /// fails at the unshifted H (HessianSolveError; rethrown at a shifted one).
+    bool   solved_newton_step();
     LowestEigenpair lowest_shifted_eigenpair();
     LowestEigenpair negative_curvature_direction();
     double          curvature_along(const Vector &z) const;
